@@ -69,23 +69,14 @@ std::vector<Climb> find_climbs(const std::vector<double>& d, const std::vector<d
   for (std::size_t k = 0; k + 1 < tp.size(); ++k) {
     if (tp[k].is_max || !tp[k + 1].is_max) continue;
     std::size_t a = tp[k].index, b = tp[k + 1].index;
-    // Trim flat approaches and flat tops: ends move inwards while the next 100 m rise less
-    // than 1 %, so a climb starts where the road starts to climb.
-    auto rise_pct = [&](std::size_t from, std::size_t to) {
-      return (e[to] - e[from]) / std::max(d[to] - d[from], 1e-9) * 100.0;
-    };
-    while (a < b) {
-      std::size_t j = a;
-      while (j < b && d[j] - d[a] < 100.0) ++j;
-      if (rise_pct(a, j) >= 1.0) break;
-      ++a;
-    }
-    while (b > a) {
-      std::size_t j = b;
-      while (j > a && d[b] - d[j] < 100.0) --j;
-      if (rise_pct(j, b) >= 1.0) break;
-      --b;
-    }
+    // Trim flat approaches and flat tops: the ends move inwards while the road there rises less
+    // than a quarter of the whole swing's mean gradient (and at least less than 1 %), so a climb
+    // starts where the road starts to climb in earnest.
+    const double swing_grade = (e[b] - e[a]) / std::max(d[b] - d[a], 1e-9);
+    const double flat = std::max(0.01, 0.25 * swing_grade);
+    auto step_grade = [&](std::size_t i) { return (e[i + 1] - e[i]) / std::max(d[i + 1] - d[i], 1e-9); };
+    while (a < b && step_grade(a) < flat) ++a;
+    while (b > a && step_grade(b - 1) < flat) --b;
     if (b <= a) continue;
     Climb c;
     c.start_m = d[a];

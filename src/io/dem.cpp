@@ -3,6 +3,8 @@
 #include <ogr_spatialref.h>
 #include <proj.h>
 
+#include <GeographicLib/Geodesic.hpp>
+
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
@@ -208,8 +210,12 @@ Dem Dem::open(const std::string& path, const DemOptions& options) {
   const double px = std::hypot(impl->gt[1], impl->gt[4]);
   const double py = std::hypot(impl->gt[2], impl->gt[5]);
   if (info.geographic) {
-    const double lat = 0.5 * (south + north) * M_PI / 180.0;
-    info.pixel_size_m = std::max(px * 111320.0 * std::cos(lat), py * 110574.0);
+    // Ground size of one pixel at the raster's mid latitude, along both axes (WGS84 geodesic).
+    const double lat = 0.5 * (south + north), lon = 0.5 * (west + east);
+    double ew_m = 0.0, ns_m = 0.0;
+    GeographicLib::Geodesic::WGS84().Inverse(lat, lon, lat, lon + px, ew_m);
+    GeographicLib::Geodesic::WGS84().Inverse(lat, lon, lat + py, lon, ns_m);
+    info.pixel_size_m = std::max(ew_m, ns_m);
   } else {
     double lin = srs.GetLinearUnits();
     if (!(lin > 0)) lin = 1.0;
