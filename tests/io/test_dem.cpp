@@ -12,6 +12,7 @@
 #include "coursewarden/dem.hpp"
 #include "coursewarden/error.hpp"
 #include "support/support.hpp"
+#include "util/text.hpp"
 
 using namespace coursewarden;
 
@@ -25,7 +26,7 @@ double plane(double x, double y) { return 300.0 + 0.02 * (x - 500000.0) - 0.01 *
 std::string gdallocationinfo_value(const std::string& file, double x, double y) {
   // GDAL's own tool as the reference reader of one pixel's value.
   const std::string cmd = "GDAL_PAM_ENABLED=NO gdallocationinfo -valonly -geoloc '" + file + "' " +
-                          std::to_string(x) + " " + std::to_string(y) + " 2>/dev/null";
+                          coursewarden::fmt_fixed(x, 9) + " " + coursewarden::fmt_fixed(y, 9) + " 2>/dev/null";
   std::unique_ptr<FILE, int (*)(FILE*)> pipe(popen(cmd.c_str(), "r"), pclose);
   if (!pipe) return "";
   char buf[128] = {0};
@@ -34,6 +35,8 @@ std::string gdallocationinfo_value(const std::string& file, double x, double y) 
   while (!s.empty() && (s.back() == '\n' || s.back() == '\r')) s.pop_back();
   return s;
 }
+
+double num(const std::string& text) { return coursewarden::parse_number(text).value_or(NAN); }
 
 void skip_without(const std::string& path) {
   if (!std::filesystem::exists(path)) GTEST_SKIP() << path << " missing: run scripts/install-deps.sh";
@@ -181,7 +184,7 @@ TEST(DemReference, TerraElevGeographicWithNodataMatchesGdallocationinfo) {
       const double lat = 50.191666666666663 - (row + 0.5) * res;
       const std::string ref = gdallocationinfo_value(f, lon, lat);
       if (ref.empty()) continue;
-      const double expected = std::stod(ref);
+      const double expected = num(ref);
       const double got = dem.sample_lonlat({lon}, {lat})[0];
       if (expected == -32768) {
         EXPECT_TRUE(std::isnan(got)) << col << "," << row;
@@ -209,13 +212,13 @@ TEST(DemReference, StarsOlindaUtm25SouthMatchesGdallocationinfo) {
       const double x = x0 + (col + 0.5) * px, y = y0 - (row + 0.5) * px;
       const std::string ref = gdallocationinfo_value(f, x, y);
       ASSERT_FALSE(ref.empty());
-      EXPECT_NEAR(dem.sample_native(x, y), std::stod(ref), 1e-4) << col << "," << row;
+      EXPECT_NEAR(dem.sample_native(x, y), num(ref), 1e-4) << col << "," << row;
     }
   }
   // Midway between four centres: the mean of the four values GDAL reports (bilinear, derived).
   const double xm = x0 + 50 * px, ym = y0 - 50 * px;
   double sum = 0;
   for (int dc : {0, 1})
-    for (int dr : {0, 1}) sum += std::stod(gdallocationinfo_value(f, x0 + (49 + dc + 0.5) * px, y0 - (49 + dr + 0.5) * px));
+    for (int dr : {0, 1}) sum += num(gdallocationinfo_value(f, x0 + (49 + dc + 0.5) * px, y0 - (49 + dr + 0.5) * px));
   EXPECT_NEAR(dem.sample_native(xm, ym), sum / 4.0, 1e-4);
 }

@@ -4,7 +4,9 @@
 #include <ogr_spatialref.h>
 #include <proj.h>
 
+#include <clocale>
 #include <fstream>
+#include <locale>
 #include <random>
 #include <sstream>
 #include <stdexcept>
@@ -126,3 +128,19 @@ std::vector<LonLat> straight_line(const std::string& crs, double x0, double y0, 
 }
 
 }  // namespace cwtest
+
+namespace {
+// The suite runs in the user's locale, as a real program embedded in a localised application
+// might: .ci/run repeats it under de_DE.UTF-8 (decimal comma) to prove that no parsing or
+// formatting of numbers depends on the C or C++ locale.
+struct LocaleFromEnvironment {
+  LocaleFromEnvironment() {
+    std::setlocale(LC_ALL, "");
+    try {
+      std::locale::global(std::locale(""));
+    } catch (const std::exception&) {
+      // An unknown LANG leaves the classic locale; the run then proves less but still runs.
+    }
+  }
+} g_locale_from_environment;
+}  // namespace
