@@ -10,7 +10,7 @@ for b in "$here"/build-bench/bench/bench_*; do
   echo "== $(basename "$b")"
   "$b" --benchmark_min_time=1
 done
-sample="$here/sample_courses/vellamont"
+sample="$here/sample_courses/ronde-orvalune"
 if [ -f "$sample/course.gpx" ]; then
   echo "== end to end: profile on the sample course"
   tmp="$(mktemp -d)"

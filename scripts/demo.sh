@@ -6,8 +6,8 @@ here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 bash "$here/scripts/install-deps.sh"
 cmake -S "$here" -B "$here/build" -DCMAKE_BUILD_TYPE=Release >/dev/null
 cmake --build "$here/build" -j"$(nproc)" --target coursewarden_exe
-sample="$here/sample_courses/vellamont"
-out="$here/out/vellamont"
+sample="$here/sample_courses/ronde-orvalune"
+out="$here/out/ronde-orvalune"
 mkdir -p "$out"
 "$here/build/coursewarden" profile "$sample/course.gpx" --dem "$sample/dem.tif" \
   --json "$out/summary.json" --csv "$out/profile.csv"

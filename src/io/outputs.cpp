@@ -169,7 +169,7 @@ std::string profile_text(const CourseAnalysis& a) {
         << pad(fmt_fixed(c.score, 0), 8) << "   " << (c.category.empty() ? "-" : c.category) << "\n";
     }
   }
-  o << "\n" << kDisclaimer << "\n";
+  o << "\n" << word_wrap(kDisclaimer, 96);
   return o.str();
 }
 

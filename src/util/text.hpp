@@ -34,4 +34,24 @@ inline std::optional<double> parse_number(std::string_view text) {
   return value;
 }
 
+/// Breaks text into lines of at most `width` characters at spaces (words longer stay whole).
+inline std::string word_wrap(std::string_view text, std::size_t width) {
+  std::string out, line;
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find(' ', start);
+    if (end == std::string_view::npos) end = text.size();
+    const std::string_view word = text.substr(start, end - start);
+    if (!line.empty() && line.size() + 1 + word.size() > width) {
+      out += line + "\n";
+      line.clear();
+    }
+    if (!line.empty()) line += ' ';
+    line += word;
+    start = end + 1;
+  }
+  if (!line.empty()) out += line + "\n";
+  return out;
+}
+
 }  // namespace coursewarden
