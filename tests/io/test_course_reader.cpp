@@ -185,3 +185,34 @@ TEST(CourseReader, BadInputGetsOneClearLine) {
   cwtest::write_gpx(dir.file("same.gpx"), {{"Same", {{{3.0, 46.0}, {3.0, 46.0}, {3.0, 46.0}}}}});
   expect_refused(dir.file("same.gpx"), {"same.gpx", "no length"});
 }
+
+TEST(CourseReader, GpxRoutesAndPointTimesAreKept) {
+  cwtest::TempDir dir;
+  cwtest::write_text(dir.file("route.gpx"), R"(<?xml version="1.0"?>
+<gpx version="1.1" creator="t" xmlns="http://www.topografix.com/GPX/1/1">
+ <rte><name>Planned</name>
+  <rtept lat="46.0" lon="3.0"><ele>300</ele></rtept>
+  <rtept lat="46.0" lon="3.01"><ele>310</ele></rtept>
+  <rtept lat="46.01" lon="3.01"><ele>320</ele></rtept>
+ </rte>
+</gpx>)");
+  RawCourse r = read_course(dir.file("route.gpx"));
+  EXPECT_EQ(r.name, "Planned");
+  ASSERT_EQ(r.vertices.size(), 3u);
+  EXPECT_TRUE(r.has_elevations);
+  EXPECT_FALSE(r.has_times);
+
+  cwtest::write_text(dir.file("timed.gpx"), R"(<?xml version="1.0"?>
+<gpx version="1.1" creator="t" xmlns="http://www.topografix.com/GPX/1/1">
+ <trk><name>Ride</name><trkseg>
+  <trkpt lat="46.0" lon="3.0"><time>2026-06-14T07:30:00Z</time></trkpt>
+  <trkpt lat="46.0" lon="3.001"><time>2026-06-14T07:30:12Z</time></trkpt>
+ </trkseg></trk>
+</gpx>)");
+  RawCourse t = read_course(dir.file("timed.gpx"));
+  ASSERT_TRUE(t.has_times);
+  // 2026-06-14T07:30:00Z as Unix time: 20618 days x 86400 s + 27000 s = 1781422200
+  // (derived: days from 1970-01-01 by the proleptic Gregorian calendar; GNU date agrees).
+  EXPECT_DOUBLE_EQ(t.vertices[0].time_s, 1781422200.0);
+  EXPECT_DOUBLE_EQ(t.vertices[1].time_s - t.vertices[0].time_s, 12.0);
+}
