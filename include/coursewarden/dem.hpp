@@ -51,6 +51,9 @@ public:
   std::vector<double> sample_lonlat(const std::vector<double>& lon_deg,
                                     const std::vector<double>& lat_deg);
 
+  /// Transforms a WGS84 lon/lat point into the DEM's own CRS (for sample_native).
+  void lonlat_to_native(double lon_deg, double lat_deg, double& x, double& y) const;
+
   /// Number of tiles read so far (for tests and benchmarks).
   std::size_t tiles_read() const;
 

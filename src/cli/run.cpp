@@ -3,14 +3,20 @@
 
 #include <CLI/CLI.hpp>
 
+#include <cmath>
 #include <exception>
+#include <filesystem>
+#include <optional>
 #include <iostream>
 #include <map>
 #include <sstream>
 
 #include "coursewarden/analysis.hpp"
+#include "coursewarden/check.hpp"
+#include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
 #include "coursewarden/outputs.hpp"
+#include "io/riders_output.hpp"
 #include "util/text.hpp"
 
 namespace coursewarden::cli {
@@ -102,6 +108,116 @@ int run_profile(ProfileArgs& a, std::ostream& out) {
   return 0;
 }
 
+struct CheckArgs {
+  ProfileArgs profile;
+  CheckOptions check;
+  std::string condition = "dry";
+  std::string road = "open";
+  std::string traffic_side = "right";
+  double wind_kmh = 0.0;
+  double wind_from_deg = 0.0;
+  double assist_cutoff_kmh = 25.0;
+  double fast_kmh = 60.0;
+  std::string start = "08:00";
+  std::string out_dir;
+};
+
+double parse_clock_s(const std::string& text) {
+  const auto colon = text.find(':');
+  const auto h = parse_number(text.substr(0, colon));
+  const auto m = colon == std::string::npos ? std::optional<double>(0.0) : parse_number(text.substr(colon + 1));
+  if (!h || !m || *h < 0 || *h > 23 || *m < 0 || *m >= 60 || std::floor(*h) != *h || std::floor(*m) != *m) {
+    fail("", "--start " + text, "give the start time as HH:MM, e.g. 08:30");
+  }
+  return *h * 3600.0 + *m * 60.0;
+}
+
+void add_check_options(CLI::App& cmd, CheckArgs& a) {
+  add_course_options(cmd, a.profile);
+  cmd.add_option("--riders", a.check.riders_path, "TOML file adding or overriding rider classes");
+  cmd.add_option("--classes", a.check.class_names, "rider classes in the field (default: all)")
+      ->delimiter(',');
+  cmd.add_option("--condition", a.condition, "road surface: dry or wet")
+      ->check(CLI::IsMember({"dry", "wet"}))
+      ->capture_default_str();
+  cmd.add_option("--road", a.road, "closed (riders use the road width) or open (own lane)")
+      ->check(CLI::IsMember({"closed", "open"}))
+      ->capture_default_str();
+  cmd.add_option("--road-width", a.check.road.road_width_m, "usable road width on a closed road, m")
+      ->capture_default_str();
+  cmd.add_option("--lane-width", a.check.road.lane_width_m, "lane width on an open road, m")
+      ->capture_default_str();
+  cmd.add_option("--traffic-side", a.traffic_side, "side of the road traffic keeps to: right or left")
+      ->check(CLI::IsMember({"right", "left"}))
+      ->capture_default_str();
+  cmd.add_option("--temperature", a.check.environment.temperature_c, "air temperature, deg C")
+      ->capture_default_str();
+  cmd.add_option("--wind", a.wind_kmh, "wind speed, km/h")->capture_default_str();
+  cmd.add_option("--wind-from", a.wind_from_deg, "direction the wind blows from, deg clockwise from north")
+      ->capture_default_str();
+  cmd.add_option("--start", a.start, "start time of the first rider, HH:MM")->capture_default_str();
+  cmd.add_option("--assist-cutoff", a.assist_cutoff_kmh,
+                 "speed at which pedal-assist motors stop helping (legal limit), km/h")
+      ->capture_default_str();
+  cmd.add_option("--fast-speed", a.fast_kmh, "speed above which a section counts as fast, km/h")
+      ->capture_default_str();
+  cmd.add_option("--no-terrain-sight", [&a](const std::vector<std::string>&) { a.check.terrain_sight = false; return true; },
+                 "check sight over the road's crests only, not over the DEM's terrain")
+      ->expected(0);
+  cmd.add_option("--out", a.out_dir, "folder for summary.json and profile.csv (created if needed)");
+  cmd.add_option("--json", a.profile.json_path, "write the summary JSON here ('-' = stdout)");
+}
+
+void check_finite(double v, const std::string& option, double lo, double hi, const std::string& unit) {
+  if (!(std::isfinite(v) && v >= lo && v <= hi)) {
+    fail("", option, "must be between " + fmt_fixed(lo, 0) + " and " + fmt_fixed(hi, 0) + " " + unit);
+  }
+}
+
+int run_check_command(CheckArgs& a, std::ostream& out) {
+  a.profile.analysis.elevation_source = parse_source(a.profile.elevation);
+  apply_scale(a.profile);
+  CheckOptions& c = a.check;
+  c.analysis = a.profile.analysis;
+  check_finite(c.environment.temperature_c, "--temperature", -30, 50, "deg C");
+  check_finite(a.wind_kmh, "--wind", 0, 150, "km/h");
+  check_finite(a.wind_from_deg, "--wind-from", 0, 360, "deg");
+  check_finite(a.assist_cutoff_kmh, "--assist-cutoff", 5, 60, "km/h");
+  check_finite(a.fast_kmh, "--fast-speed", 20, 150, "km/h");
+  check_finite(c.road.road_width_m, "--road-width", 2, 30, "m");
+  check_finite(c.road.lane_width_m, "--lane-width", 1, 10, "m");
+  c.environment.wet = a.condition == "wet";
+  c.environment.wind_speed_mps = a.wind_kmh / 3.6;
+  c.environment.wind_from_rad = a.wind_from_deg * 3.14159265358979323846 / 180.0;
+  c.environment.assist_cutoff_mps = a.assist_cutoff_kmh / 3.6;
+  c.environment.start_time_s = parse_clock_s(a.start);
+  c.road.closed = a.road == "closed";
+  c.road.right_hand_traffic = a.traffic_side == "right";
+  c.hazards.fast_speed_mps = a.fast_kmh / 3.6;
+
+  const CheckResult result = run_check(c);
+  // Build every output before writing any, so a failure never leaves a partial set.
+  const std::string json = check_summary_json(result);
+  const std::string csv = check_profile_csv(result);
+  const bool json_to_stdout = a.profile.json_path == "-";
+  if (!json_to_stdout) out << check_text(result);
+  if (!a.out_dir.empty()) {
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    fs::create_directories(a.out_dir, ec);
+    if (!fs::is_directory(a.out_dir)) fail(a.out_dir, "--out", "cannot create this folder");
+    write_file_atomic((fs::path(a.out_dir) / "summary.json").string(), json);
+    write_file_atomic((fs::path(a.out_dir) / "profile.csv").string(), csv);
+    if (!json_to_stdout) out << "Outputs written to " << a.out_dir << " (summary.json, profile.csv)\n";
+  }
+  if (json_to_stdout) {
+    out << json;
+  } else if (!a.profile.json_path.empty()) {
+    write_file_atomic(a.profile.json_path, json);
+  }
+  return 0;
+}
+
 }  // namespace
 
 int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
@@ -119,6 +235,15 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   profile->add_option("--json", profile_args.json_path, "write the summary JSON here ('-' = stdout)");
   profile->add_option("--csv", profile_args.csv_path, "write one row per station here");
 
+  CheckArgs check_args;
+  CLI::App* check = app.add_subcommand(
+      "check", "the safety check: profile, rider-class speeds, corners, sight lines and hazards");
+  add_check_options(*check, check_args);
+
+  std::string riders_file;
+  CLI::App* riders = app.add_subcommand("riders", "list the rider classes and their parameters");
+  riders->add_option("--riders", riders_file, "TOML file adding or overriding rider classes");
+
   std::vector<std::string> rest(args.begin() + (args.empty() ? 0 : 1), args.end());
   std::reverse(rest.begin(), rest.end());  // CLI11 takes the arguments in reverse order
   try {
@@ -132,6 +257,12 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   }
   try {
     if (profile->parsed()) return run_profile(profile_args, out);
+    if (check->parsed()) return run_check_command(check_args, out);
+    if (riders->parsed()) {
+      const auto classes = riders_file.empty() ? builtin_rider_classes() : load_rider_classes(riders_file);
+      out << riders_table_text(classes);
+      return 0;
+    }
   } catch (const Error& e) {
     err << "coursewarden: " << e.what() << "\n";
     return 1;

@@ -252,6 +252,12 @@ double Dem::sample_native(double x, double y) {
   return (sum / weight * d.scale + d.offset) * d.info.to_metres;
 }
 
+void Dem::lonlat_to_native(double lon_deg, double lat_deg, double& x, double& y) const {
+  PJ_COORD c = proj_trans(impl_->to_dem, PJ_FWD, proj_coord(lon_deg, lat_deg, 0, 0));
+  x = c.xy.x;
+  y = c.xy.y;
+}
+
 std::vector<double> Dem::sample_lonlat(const std::vector<double>& lon_deg,
                                        const std::vector<double>& lat_deg) {
   const std::size_t n = std::min(lon_deg.size(), lat_deg.size());

@@ -10,6 +10,7 @@
 
 #include "coursewarden/error.hpp"
 #include "coursewarden/outputs.hpp"
+#include "io/json_out.hpp"
 #include "util/text.hpp"
 
 namespace coursewarden {
@@ -20,13 +21,10 @@ const char* const kDisclaimer =
     "terrain model has no vegetation, buildings, parked vehicles, road surface or traffic, and "
     "its heights and speeds carry errors.";
 
+using json_out::r;
+
 namespace {
 
-// Rounds for output so files do not carry meaningless digits (and stay diff-friendly).
-double r(double v, int decimals) {
-  const double f = std::pow(10.0, decimals);
-  return std::round(v * f) / f;
-}
 
 nlohmann::json climbs_json(const std::vector<Climb>& climbs) {
   auto out = nlohmann::json::array();
@@ -45,7 +43,7 @@ nlohmann::json climbs_json(const std::vector<Climb>& climbs) {
 
 }  // namespace
 
-std::string profile_summary_json(const CourseAnalysis& a) {
+nlohmann::json profile_json(const CourseAnalysis& a) {
   const auto& t = a.profile.totals;
   nlohmann::json j;
   j["disclaimer"] = kDisclaimer;
@@ -98,8 +96,10 @@ std::string profile_summary_json(const CourseAnalysis& a) {
                         {"max_abs_difference_m", r(c.max_abs_difference_m, 2)},
                         {"max_abs_at_m", r(c.max_abs_at_m, 1)}};
   }
-  return j.dump(2) + "\n";
+  return j;
 }
+
+std::string profile_summary_json(const CourseAnalysis& a) { return profile_json(a).dump(2) + "\n"; }
 
 std::string profile_csv(const CourseAnalysis& a) {
   std::string out = "distance_m,lon,lat,elevation_m,grade_pct\n";

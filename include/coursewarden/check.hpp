@@ -1,0 +1,50 @@
+// coursewarden: the whole safety check of one course (profile, rider speeds, corners, sight
+// lines, hazards) as one call. Reads the inputs; everything after is the pure stages.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "coursewarden/analysis.hpp"
+#include "coursewarden/corners.hpp"
+#include "coursewarden/hazards.hpp"
+#include "coursewarden/riders.hpp"
+#include "coursewarden/speed.hpp"
+
+namespace coursewarden {
+
+struct CheckOptions {
+  AnalysisOptions analysis;
+  std::string riders_path;               ///< TOML file adding or overriding classes; "" = built-in
+  std::vector<std::string> class_names;  ///< classes in the field; empty = all known classes
+  Environment environment;               ///< weather, wet/dry, start time, assistance cut-off
+  RoadState road;
+  CornerOptions corners;
+  HazardOptions hazards;
+  SimulationOptions simulation;
+  bool terrain_sight = true;  ///< also test sight lines against the DEM (hillside on bends)
+};
+
+struct CheckResult {
+  CourseAnalysis analysis;
+  std::vector<RiderClass> classes;
+  std::vector<SpeedProfile> speeds;  ///< parallel to classes
+  std::vector<Corner> corners;
+  std::vector<double> path_radius_m;  ///< per corner, for the road state
+  std::vector<double> sight_m;           ///< per station: how far the road ahead is seen over crests
+  std::vector<double> corner_visible_m;  ///< per corner: how far back its entry stays in view
+  std::vector<Hazard> hazards;
+  Environment environment;
+  RoadState road;
+  HazardOptions hazard_options;
+};
+
+/// Runs the check. Throws Error with a one-line message for unusable input.
+CheckResult run_check(const CheckOptions& options);
+
+/// Selects classes by name (all when `names` is empty); throws Error naming an unknown class.
+std::vector<RiderClass> select_classes(const std::vector<RiderClass>& known,
+                                       const std::vector<std::string>& names,
+                                       const std::string& source);
+
+}  // namespace coursewarden

@@ -1,0 +1,189 @@
+// Summary JSON, per-station CSV and terminal text of a check.
+#include "coursewarden/check_outputs.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <sstream>
+
+#include "coursewarden/outputs.hpp"
+#include "io/json_out.hpp"
+#include "io/riders_output.hpp"
+#include "util/text.hpp"
+
+namespace coursewarden {
+namespace {
+
+using json_out::r;
+constexpr double kRadToDeg = 180.0 / 3.14159265358979323846;
+
+nlohmann::json finite_or_null(double v, int decimals) {
+  return std::isfinite(v) ? nlohmann::json(r(v, decimals)) : nlohmann::json(nullptr);
+}
+
+nlohmann::json conditions_json(const CheckResult& c) {
+  const auto& e = c.environment;
+  return {{"surface", e.wet ? "wet" : "dry"},
+          {"road", c.road.closed ? "closed" : "open"},
+          {"road_width_m", c.road.road_width_m},
+          {"lane_width_m", c.road.lane_width_m},
+          {"traffic_side", c.road.right_hand_traffic ? "right" : "left"},
+          {"temperature_c", e.temperature_c},
+          {"wind_speed_kmh", r(e.wind_speed_mps * 3.6, 1)},
+          {"wind_from_deg", r(e.wind_from_rad * kRadToDeg, 0)},
+          {"start_time_s", e.start_time_s},
+          {"assist_cutoff_kmh", r(e.assist_cutoff_mps * 3.6, 1)}};
+}
+
+nlohmann::json corner_json(const Corner& c, double path_radius, double visible_m) {
+  return {{"visible_approach_m", finite_or_null(visible_m, 0)},
+          {"entry_m", r(c.entry_m, 1)},
+          {"apex_m", r(c.apex_m, 1)},
+          {"exit_m", r(c.exit_m, 1)},
+          {"radius_m", r(c.turn_radius_m, 1)},
+          {"path_radius_m", r(path_radius, 1)},
+          {"deflection_deg", r(c.deflection_rad * kRadToDeg, 1)},
+          {"direction", turn_direction_name(c.direction)},
+          {"hairpin", c.hairpin},
+          {"s_bend", c.s_bend},
+          {"compound", c.compound},
+          {"straight_before_m", r(c.straight_before_m, 1)}};
+}
+
+nlohmann::json hazard_json(const Hazard& h) {
+  nlohmann::json j;
+  j["number"] = h.number;
+  j["at_m"] = r(h.at_m, 1);
+  j["end_m"] = r(h.end_m, 1);
+  j["kind"] = hazard_kind_key(h.kind);
+  j["severity"] = std::string(severity_name(h.severity));
+  auto classes = nlohmann::json::array();
+  for (const auto& a : h.classes) {
+    classes.push_back({{"name", a.class_name},
+                       {"entry_speed_kmh", r(a.entry_speed_mps * 3.6, 1)},
+                       {"planned_speed_kmh", r(a.planned_speed_mps * 3.6, 1)},
+                       {"safe_speed_kmh", r(a.safe_speed_mps * 3.6, 1)},
+                       {"braking_distance_m", finite_or_null(a.braking_distance_m, 1)},
+                       {"braking_distance_hard_m", finite_or_null(a.braking_distance_hard_m, 1)},
+                       {"room_m", r(a.room_m, 1)},
+                       {"too_fast", a.too_fast},
+                       {"hidden", a.hidden},
+                       {"severity", std::string(severity_name(a.severity))}});
+  }
+  for (const auto& name : h.section_classes) classes.push_back({{"name", name}});
+  j["classes"] = classes;
+  j["peak_speed_kmh"] = r(h.peak_speed_mps * 3.6, 1);
+  if (h.corner) j["corner"] = *h.corner;
+  if (h.kind == HazardKind::steep_descent) j["steepest_pct"] = r(h.steepest_pct, 1);
+  j["hidden"] = h.hidden;
+  j["after_descent"] = h.after_descent;
+  j["sign_distance_m"] = r(h.sign.distance_m, 0);
+  j["sign_visibility_m"] = r(h.sign.min_clear_visibility_m, 0);
+  j["sign_speed_band"] = std::string(h.sign.speed_band);
+  j["marshals"] = h.marshals;
+  j["lon"] = r(h.lon_deg, 7);
+  j["lat"] = r(h.lat_deg, 7);
+  j["reason"] = h.reason;
+  return j;
+}
+
+std::string pad(const std::string& s, std::size_t width, bool right = true) {
+  if (s.size() >= width) return s;
+  return right ? std::string(width - s.size(), ' ') + s : s + std::string(width - s.size(), ' ');
+}
+
+std::string clock(double seconds) {
+  const long total = std::lround(seconds);
+  const long h = total / 3600, m = (total % 3600) / 60;
+  return std::to_string(h) + "h" + (m < 10 ? "0" : "") + std::to_string(m);
+}
+
+}  // namespace
+
+std::string check_summary_json(const CheckResult& c) {
+  nlohmann::json j = profile_json(c.analysis);
+  j["conditions"] = conditions_json(c);
+  auto riders = nlohmann::json::array();
+  for (std::size_t k = 0; k < c.classes.size(); ++k) {
+    auto rj = rider_result_json(c.classes[k], c.speeds[k]);
+    rj["description"] = c.classes[k].description;
+    riders.push_back(rj);
+  }
+  j["riders"] = riders;
+  auto corners = nlohmann::json::array();
+  for (std::size_t k = 0; k < c.corners.size(); ++k) corners.push_back(corner_json(c.corners[k], c.path_radius_m[k],
+                                  k < c.corner_visible_m.size() ? c.corner_visible_m[k] : NAN));
+  j["corners"] = corners;
+  auto hazards = nlohmann::json::array();
+  for (const auto& h : c.hazards) hazards.push_back(hazard_json(h));
+  j["hazards"] = hazards;
+  nlohmann::json counts = nlohmann::json::object();
+  for (Severity s : {Severity::note, Severity::caution, Severity::serious, Severity::critical}) {
+    counts[std::string(severity_name(s))] =
+        std::count_if(c.hazards.begin(), c.hazards.end(), [s](const Hazard& h) { return h.severity == s; });
+  }
+  j["hazard_counts"] = counts;
+  return j.dump(2) + "\n";
+}
+
+std::string check_profile_csv(const CheckResult& c) {
+  const auto& a = c.analysis;
+  std::string out = "distance_m,lon,lat,elevation_m,grade_pct";
+  for (const auto& rc : c.classes) out += "," + rc.name + "_planned_kmh," + rc.name + "_unbraked_kmh";
+  out += ",sight_m\n";
+  for (std::size_t i = 0; i < a.stations.size(); ++i) {
+    const auto& s = a.stations[i];
+    out += fmt_fixed(s.distance_m, 1) + "," + fmt_fixed(s.lon_deg, 7) + "," + fmt_fixed(s.lat_deg, 7) +
+           "," + fmt_fixed(a.profile.elevation_m[i], 2) + "," + fmt_fixed(a.profile.grade[i] * 100.0, 2);
+    for (const auto& sp : c.speeds) {
+      out += "," + fmt_fixed(sp.planned_speed_mps[i] * 3.6, 1) + "," + fmt_fixed(sp.unbraked_speed_mps[i] * 3.6, 1);
+    }
+    out += "," + fmt_fixed(c.sight_m[i], 0) + "\n";
+  }
+  return out;
+}
+
+std::string check_text(const CheckResult& c) {
+  std::string text = profile_text(c.analysis);
+  // profile_text ends with the caution; keep it for the very end of the check's text.
+  const std::string caution = word_wrap(kDisclaimer, 96);
+  if (text.size() >= caution.size() && text.compare(text.size() - caution.size(), caution.size(), caution) == 0) {
+    text.resize(text.size() - caution.size());
+  }
+  std::ostringstream o;
+  o << text;
+  const auto& e = c.environment;
+  o << "Conditions  " << (e.wet ? "wet" : "dry") << " road, " << (c.road.closed ? "closed" : "open")
+    << " to traffic, " << fmt_fixed(e.temperature_c, 0) << " C, wind " << fmt_fixed(e.wind_speed_mps * 3.6, 0)
+    << " km/h from " << fmt_fixed(e.wind_from_rad * kRadToDeg, 0) << " deg\n\n";
+  o << "Rider classes                   time   avg km/h   max km/h   walking\n";
+  for (std::size_t k = 0; k < c.classes.size(); ++k) {
+    const auto& sp = c.speeds[k];
+    o << "  " << pad(c.classes[k].name, 24, false) << pad(clock(sp.total_time_s), 10)
+      << pad(fmt_fixed(sp.moving_avg_speed_mps * 3.6, 1), 11) << pad(fmt_fixed(sp.max_speed_mps * 3.6, 1), 11)
+      << "   "
+      << (sp.walking_sections.empty() ? "-" : fmt_fixed(sp.longest_walking_m, 0) + " m longest") << "\n";
+  }
+  o << "\n" << c.corners.size() << " corners found; " << c.hazards.size() << " hazards";
+  for (Severity s : {Severity::critical, Severity::serious, Severity::caution, Severity::note}) {
+    const auto n = std::count_if(c.hazards.begin(), c.hazards.end(), [s](const Hazard& h) { return h.severity == s; });
+    o << ", " << n << " " << severity_name(s);
+  }
+  o << "\n";
+  if (!c.hazards.empty()) {
+    o << "   #      km  severity  what                         classes  peak km/h  sign m  marshals\n";
+    for (const auto& h : c.hazards) {
+      const std::size_t affected = h.classes.empty() ? h.section_classes.size() : h.classes.size();
+      o << pad(std::to_string(h.number), 4) << pad(fmt_fixed(h.at_m / 1000.0, 2), 8) << "  "
+        << pad(std::string(severity_name(h.severity)), 8, false) << "  "
+        << pad(hazard_kind_label(h.kind), 27, false) << pad(std::to_string(affected), 9)
+        << pad(fmt_fixed(h.peak_speed_mps * 3.6, 0), 11) << pad(fmt_fixed(h.sign.distance_m, 0), 8)
+        << pad(std::to_string(h.marshals), 10) << "\n";
+    }
+  }
+  o << "\n" << caution;
+  return o.str();
+}
+
+}  // namespace coursewarden
