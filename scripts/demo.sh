@@ -8,7 +8,4 @@ cmake -S "$here" -B "$here/build" -DCMAKE_BUILD_TYPE=Release >/dev/null
 cmake --build "$here/build" -j"$(nproc)" --target coursewarden_exe
 sample="$here/sample_courses/ronde-orvalune"
 out="$here/out/ronde-orvalune"
-mkdir -p "$out"
-"$here/build/coursewarden" profile "$sample/course.gpx" --dem "$sample/dem.tif" \
-  --json "$out/summary.json" --csv "$out/profile.csv"
-echo "Report folder: $out"
+"$here/build/coursewarden" check "$sample/course.gpx" --dem "$sample/dem.tif" --out "$out"

@@ -16,6 +16,7 @@
 #include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
 #include "coursewarden/outputs.hpp"
+#include "coursewarden/report_files.hpp"
 #include "io/riders_output.hpp"
 #include "util/text.hpp"
 
@@ -198,17 +199,15 @@ int run_check_command(CheckArgs& a, std::ostream& out) {
   const CheckResult result = run_check(c);
   // Build every output before writing any, so a failure never leaves a partial set.
   const std::string json = check_summary_json(result);
-  const std::string csv = check_profile_csv(result);
   const bool json_to_stdout = a.profile.json_path == "-";
   if (!json_to_stdout) out << check_text(result);
   if (!a.out_dir.empty()) {
-    namespace fs = std::filesystem;
-    std::error_code ec;
-    fs::create_directories(a.out_dir, ec);
-    if (!fs::is_directory(a.out_dir)) fail(a.out_dir, "--out", "cannot create this folder");
-    write_file_atomic((fs::path(a.out_dir) / "summary.json").string(), json);
-    write_file_atomic((fs::path(a.out_dir) / "profile.csv").string(), csv);
-    if (!json_to_stdout) out << "Outputs written to " << a.out_dir << " (summary.json, profile.csv)\n";
+    const auto written = write_check_folder(result, a.out_dir);
+    if (!json_to_stdout) {
+      out << "Report folder: " << a.out_dir << " (";
+      for (std::size_t i = 0; i < written.size(); ++i) out << (i ? ", " : "") << written[i];
+      out << ")\n";
+    }
   }
   if (json_to_stdout) {
     out << json;

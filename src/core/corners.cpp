@@ -233,8 +233,13 @@ double local_heading_rad(const Track& track, std::size_t j, std::size_t chord) {
     syy += dy * dy;
     sxy += dx * dy;
   }
-  const double axis = 0.5 * std::atan2(2.0 * sxy, sxx - syy);  // from the x axis
-  double ux = std::cos(axis), uy = std::sin(axis);
+  // Unit vector along the axis at angle 0.5 atan2(2 sxy, sxx - syy) from the x axis, by the
+  // half-angle formulas.
+  const double spread = std::hypot(sxx - syy, 2.0 * sxy);
+  if (!(spread > 0)) return heading_rad(a, b);
+  const double cos2 = (sxx - syy) / spread;
+  double ux = std::sqrt(std::max(0.0, 0.5 * (1.0 + cos2)));
+  double uy = std::copysign(std::sqrt(std::max(0.0, 0.5 * (1.0 - cos2))), sxy);
   if (ux * (b.x() - a.x()) + uy * (b.y() - a.y()) < 0) {
     ux = -ux;
     uy = -uy;
@@ -494,7 +499,7 @@ double best_fillet_radius_m(const FilletPath& path, const Track& track, std::siz
   double x1 = b - g * (b - a), x2 = a + g * (b - a);
   double f1 = sum_of_squares(path, track, first, last, x1);
   double f2 = sum_of_squares(path, track, first, last, x2);
-  for (int it = 0; it < 40 && b - a > 1e-4 * b; ++it) {
+  for (int it = 0; it < 40 && b - a > 1e-3 * b; ++it) {
     if (f1 <= f2) {
       b = x2;
       x2 = x1;

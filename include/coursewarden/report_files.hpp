@@ -1,0 +1,20 @@
+// coursewarden: the folder of outputs a check writes (`check --out DIR`).
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "coursewarden/check.hpp"
+
+namespace coursewarden {
+
+/// Names of every file write_check_folder may write. An existing folder is never wiped: only
+/// these files are replaced.
+const std::vector<std::string>& check_folder_files();
+
+/// Builds every output in memory first, then writes each into `dir` (created if needed) through
+/// a temporary file and a rename. Returns the names written, in order. Throws Error naming the
+/// folder when it cannot be created or written.
+std::vector<std::string> write_check_folder(const CheckResult& result, const std::string& dir);
+
+}  // namespace coursewarden

@@ -1,0 +1,39 @@
+// The folder of outputs of a check.
+#include "coursewarden/report_files.hpp"
+
+#include <filesystem>
+#include <utility>
+
+#include "coursewarden/check_outputs.hpp"
+#include "coursewarden/error.hpp"
+#include "coursewarden/outputs.hpp"
+
+namespace coursewarden {
+
+const std::vector<std::string>& check_folder_files() {
+  static const std::vector<std::string> names = {"summary.json", "profile.csv"};
+  return names;
+}
+
+std::vector<std::string> write_check_folder(const CheckResult& result, const std::string& dir) {
+  namespace fs = std::filesystem;
+  // Everything is built before anything is written.
+  std::vector<std::pair<std::string, std::string>> files = {
+      {"summary.json", check_summary_json(result)},
+      {"profile.csv", check_profile_csv(result)},
+  };
+  std::error_code ec;
+  if (fs::exists(dir, ec) && !fs::is_directory(dir, ec)) {
+    fail(dir, "--out", "exists and is not a folder; give a folder for the outputs");
+  }
+  fs::create_directories(dir, ec);
+  if (!fs::is_directory(dir, ec)) fail(dir, "--out", "cannot create this folder; check the path and permissions");
+  std::vector<std::string> written;
+  for (const auto& [name, content] : files) {
+    write_file_atomic((fs::path(dir) / name).string(), content);
+    written.push_back(name);
+  }
+  return written;
+}
+
+}  // namespace coursewarden
