@@ -31,7 +31,7 @@ struct CornerOptions {
   double min_window_m = 10.0;
   /// The window is made long enough that GPS noise alone gives deflections with a standard
   /// deviation of at most min_deflection_rad / noise_margin (see docs/corners.md).
-  double noise_margin = 5.0;
+  double noise_margin = 6.0;
   /// Sparse-vertex rule: a corner whose whole turn falls on one vertex is taken as the circle
   /// through that vertex and the points this far along each leg (or up to the neighbouring
   /// corner, if nearer). Smaller is more cautious.

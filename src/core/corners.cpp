@@ -606,6 +606,7 @@ struct Scene {
   double spacing_m = 0.0;
   double start_m = 0.0;
   double end_m = 0.0;
+  double noise_m = 0.0;  // estimated track noise
   bool clean() const { return field.chord == 1; }
   std::size_t index_at(double distance_m) const {
     return static_cast<std::size_t>(
@@ -836,9 +837,12 @@ void fit_between_legs(const Scene& sc, const Bend& b, double deflection, const B
   if (sc.clean() && c.compound) return;
   if (sc.clean() && c.exit_m - c.entry_m > kLongCleanBendWindows * c.fit_window_m) return;
   const double hi = path.max_radius_m(t.points[shape.first], t.points[shape.last]);
-  if (!(std::isfinite(hi) && hi > 0.05 * sc.spacing_m)) return;
-  const double r =
-      best_fillet_radius_m(path, t, shape.first, shape.last, 0.01 * sc.spacing_m, hi);
+  if (!std::isfinite(hi)) return;
+  // Smallest radius tried: on a noisy track the noise itself (a fit cannot tell a circle
+  // tighter than a few sigma from a sharp corner); otherwise a hundredth of the spacing.
+  const double lo = sc.clean() ? 0.01 * sc.spacing_m : std::max(0.5 * sc.spacing_m, 2.0 * sc.noise_m);
+  if (!(hi > lo)) return;
+  const double r = best_fillet_radius_m(path, t, shape.first, shape.last, lo, hi);
   // On a clean line both estimates are sound and the tighter is kept: the fillet is exact for a
   // densely drawn arc, the window nearer for an arc drawn with few vertices (the chords between
   // them lie inside the arc and look like a wider fillet).
@@ -972,7 +976,7 @@ std::vector<Corner> find_corners(const std::vector<Station>& stations,
     if (b.sign * bend_turn_rad(f, b) >= options.min_deflection_rad) bends.push_back(b);
   }
 
-  const Scene sc{track, f, options, n, s, start_m, end_m};
+  const Scene sc{track, f, options, n, s, start_m, end_m, noise_m};
   std::vector<double> kink_vertex_m(bends.size(), kNoValue);
   for (std::size_t k = 0; k < bends.size(); ++k) {
     const Bend& b = bends[k];

@@ -6,6 +6,7 @@
 
 #include <clocale>
 #include <fstream>
+#include <map>
 #include <locale>
 #include <random>
 #include <sstream>
@@ -55,14 +56,16 @@ void write_raster(const std::string& path, const RasterSpec& spec,
 }
 
 namespace {
+// One transformation per CRS, kept for the life of the test program (tests are single-threaded).
 std::pair<double, double> trans(const std::string& crs, double a, double b, PJ_DIRECTION dir) {
-  PJ_CONTEXT* ctx = proj_context_create();
-  PJ* raw = proj_create_crs_to_crs(ctx, "EPSG:4326", crs.c_str(), nullptr);
-  PJ* pj = proj_normalize_for_visualization(ctx, raw);
+  static std::map<std::string, PJ*> cache;
+  PJ*& pj = cache[crs];
+  if (!pj) {
+    PJ* raw = proj_create_crs_to_crs(nullptr, "EPSG:4326", crs.c_str(), nullptr);
+    pj = proj_normalize_for_visualization(nullptr, raw);
+    proj_destroy(raw);
+  }
   PJ_COORD c = proj_trans(pj, dir, proj_coord(a, b, 0, 0));
-  proj_destroy(pj);
-  proj_destroy(raw);
-  proj_context_destroy(ctx);
   return {c.xy.x, c.xy.y};
 }
 }  // namespace
