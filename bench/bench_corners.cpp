@@ -24,7 +24,7 @@ struct Point {
 // `spacing_m` by linear interpolation (as the course pipeline does). Optional GPS-like noise
 // (independent, normal) on the drawn vertices.
 std::vector<Station> winding_course(double length_m, double spacing_m, double noise_m,
-                                    unsigned seed) {
+                                    unsigned seed, std::size_t& bends_over_20_deg) {
   std::mt19937 rng(seed);
   std::uniform_real_distribution<double> straight_m(20.0, 400.0);
   std::uniform_real_distribution<double> log_radius(std::log(8.0), std::log(300.0));
@@ -32,6 +32,7 @@ std::vector<Station> winding_course(double length_m, double spacing_m, double no
   std::bernoulli_distribution right(0.5);
   std::normal_distribution<double> noise(0.0, noise_m > 0 ? noise_m : 1.0);
 
+  bends_over_20_deg = 0;
   std::vector<Point> v{{0.0, 0.0}};
   double x = 0.0, y = 0.0, h = 0.0, drawn = 0.0;
   while (drawn < length_m) {
@@ -42,7 +43,9 @@ std::vector<Station> winding_course(double length_m, double spacing_m, double no
     v.push_back({x, y});
     const double r = std::exp(log_radius(rng));
     const double sign = right(rng) ? 1.0 : -1.0;
-    const double turn = turn_deg(rng) * std::numbers::pi / 180.0;
+    const double turn_d = turn_deg(rng);
+    if (turn_d >= 20.0) ++bends_over_20_deg;
+    const double turn = turn_d * std::numbers::pi / 180.0;
     const double cx = x + sign * r * std::cos(h), cy = y - sign * r * std::sin(h);
     const double step = 2.0 / r;
     for (double a = step; a < turn + 0.5 * step; a += step) {
@@ -82,7 +85,8 @@ std::vector<Station> winding_course(double length_m, double spacing_m, double no
 
 void BM_FindCorners(benchmark::State& state) {
   const double noise_m = static_cast<double>(state.range(0)) / 10.0;
-  const auto stations = winding_course(300000.0, 5.0, noise_m, 2024);
+  std::size_t drawn = 0;
+  const auto stations = winding_course(300000.0, 5.0, noise_m, 2024, drawn);
   std::size_t found = 0;
   for (auto _ : state) {
     const auto corners = coursewarden::find_corners(stations);
@@ -91,6 +95,7 @@ void BM_FindCorners(benchmark::State& state) {
   }
   state.counters["stations"] = static_cast<double>(stations.size());
   state.counters["corners"] = static_cast<double>(found);
+  state.counters["drawn_20deg"] = static_cast<double>(drawn);
 }
 // Argument: GPS noise in tenths of a metre (0: a drawn course; 25: sigma 2.5 m).
 BENCHMARK(BM_FindCorners)->Arg(0)->Arg(25)->Unit(benchmark::kMillisecond);
