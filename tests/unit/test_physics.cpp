@@ -196,7 +196,7 @@ TEST(Wind, HeadwindComponentFromDirectionItBlowsFrom) {
               5.0 * std::cos(20.0 * kDegToRad), 1e-12);  // across north
 }
 
-TEST(CornerSpeed, FollowsRadiusAndLeanAngle) {
+TEST(FlatTurn, SpeedFollowsRadiusAndLeanAngle) {
   // check-values.md section 3 (derived from tan(lean) = V^2 / (g R)): R 20 m -> 30.4 km/h at
   // 20 deg, 38.3 km/h at 30 deg, 50.4 km/h at 45 deg.
   EXPECT_NEAR(corner_speed_mps(20.0, 20.0 * kDegToRad) * 3.6, 30.4, 0.05);
