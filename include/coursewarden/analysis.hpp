@@ -27,6 +27,9 @@ struct AnalysisOptions {
   DemOptions dem;
   std::string crs;  ///< projected CRS for plane geometry; "" = transverse Mercator on the course
   double spacing_m = 5.0;
+  /// Ride the course the other way round. The stations are the forward stations in reverse
+  /// order (distance = length - forward distance), so both directions sample the same points.
+  bool reverse = false;
   ElevationSource elevation_source = ElevationSource::dem;
   ProfileOptions profile;
   ClimbOptions climbs;
@@ -48,6 +51,7 @@ struct CourseAnalysis {
   std::string projection;
   std::vector<Station> stations;
   double spacing_m = 0.0;
+  bool reversed = false;
   bool used_dem = false;
   DemInfo dem;  ///< empty when heights came from the course file
   Profile profile;
@@ -58,6 +62,10 @@ struct CourseAnalysis {
 /// Reads the course and the DEM, cleans, projects, resamples, drapes and builds the profile and
 /// climbs. Throws Error with a one-line message for any unusable input.
 CourseAnalysis analyse_course(const AnalysisOptions& options);
+
+/// The same stations ridden the other way: reversed order, distance = length - distance,
+/// heading turned by 180 degrees.
+std::vector<Station> reverse_stations(const std::vector<Station>& stations);
 
 /// Compares the stations' file heights with the profile's raw DEM heights.
 std::optional<ElevationComparison> compare_elevations(const std::vector<Station>& stations,

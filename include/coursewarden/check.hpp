@@ -2,6 +2,7 @@
 // lines, hazards) as one call. Reads the inputs; everything after is the pure stages.
 #pragma once
 
+#include <array>
 #include <string>
 #include <vector>
 
@@ -23,6 +24,14 @@ struct CheckOptions {
   HazardOptions hazards;
   SimulationOptions simulation;
   bool terrain_sight = true;  ///< also test sight lines against the DEM (hillside on bends)
+  bool check_reverse = true;  ///< also check the course ridden the other way (for one line)
+};
+
+/// Hazard counts of the same course ridden the other way.
+struct ReverseSummary {
+  bool checked = false;
+  std::array<int, 4> counts{0, 0, 0, 0};  ///< note, caution, serious, critical
+  bool markedly_safer = false;            ///< markedly fewer serious and critical hazards
 };
 
 struct CheckResult {
@@ -37,6 +46,7 @@ struct CheckResult {
   Environment environment;
   RoadState road;
   HazardOptions hazard_options;
+  ReverseSummary reverse;
 };
 
 /// Runs the check. Throws Error with a one-line message for unusable input.

@@ -19,4 +19,13 @@ std::string check_profile_csv(const CheckResult& result);
 /// columns), counts by severity, and the caution.
 std::string check_text(const CheckResult& result);
 
+/// Side-by-side comparison of two checked courses (<= 100 columns): length, ascent, climbs,
+/// predicted time per class, hazards by severity, and which is safer and why.
+std::string compare_text(const CheckResult& a, const CheckResult& b, const std::string& label_a,
+                         const std::string& label_b);
+
+/// {"a": summary of a, "b": summary of b, "comparison": {safer, score_a, score_b, why}}.
+std::string compare_json(const CheckResult& a, const CheckResult& b, const std::string& label_a,
+                         const std::string& label_b);
+
 }  // namespace coursewarden

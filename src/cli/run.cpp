@@ -40,6 +40,7 @@ void add_course_options(CLI::App& cmd, ProfileArgs& a) {
                  "CRS of a DEM that declares none, e.g. EPSG:32632");
   cmd.add_option("--track", a.analysis.read.track,
                  "track to use when the file holds several (name or 0-based index)");
+  cmd.add_flag("--reverse", a.analysis.reverse, "ride the course the other way round");
   cmd.add_option("--crs", a.analysis.crs,
                  "projected CRS for plane geometry (default: transverse Mercator on the course)");
   cmd.add_option("--spacing", a.analysis.spacing_m, "station spacing along the course, metres")
@@ -165,6 +166,8 @@ void add_check_options(CLI::App& cmd, CheckArgs& a) {
   cmd.add_option("--no-terrain-sight", [&a](const std::vector<std::string>&) { a.check.terrain_sight = false; return true; },
                  "check sight over the road's crests only, not over the DEM's terrain")
       ->expected(0);
+  cmd.add_flag("--no-reverse-check", [&a](std::int64_t) { a.check.check_reverse = false; },
+               "do not also check the course ridden the other way");
   cmd.add_option("--out", a.out_dir, "folder for summary.json and profile.csv (created if needed)");
   cmd.add_option("--json", a.profile.json_path, "write the summary JSON here ('-' = stdout)");
 }
@@ -175,7 +178,35 @@ void check_finite(double v, const std::string& option, double lo, double hi, con
   }
 }
 
+void finish_check_options(CheckArgs& a);
+
 int run_check_command(CheckArgs& a, std::ostream& out) {
+  finish_check_options(a);
+  const CheckOptions& c = a.check;
+  const CheckResult result = run_check(c);
+  // Build every output before writing any, so a failure never leaves a partial set.
+  const std::string json = check_summary_json(result);
+  const bool json_to_stdout = a.profile.json_path == "-";
+  if (!json_to_stdout) out << check_text(result);
+  if (!a.out_dir.empty()) {
+    const auto written = write_check_folder(result, a.out_dir);
+    if (!json_to_stdout) {
+      out << "Report folder: " << a.out_dir << " (";
+      for (std::size_t i = 0; i < written.size(); ++i) out << (i ? ", " : "") << written[i];
+      out << ")\n";
+    }
+  }
+  if (json_to_stdout) {
+    out << json;
+  } else if (!a.profile.json_path.empty()) {
+    write_file_atomic(a.profile.json_path, json);
+  }
+  return 0;
+}
+
+// Check options and conditions from the parsed arguments into CheckOptions (shared by check
+// and compare).
+void finish_check_options(CheckArgs& a) {
   a.profile.analysis.elevation_source = parse_source(a.profile.elevation);
   apply_scale(a.profile);
   CheckOptions& c = a.check;
@@ -195,24 +226,34 @@ int run_check_command(CheckArgs& a, std::ostream& out) {
   c.road.closed = a.road == "closed";
   c.road.right_hand_traffic = a.traffic_side == "right";
   c.hazards.fast_speed_mps = a.fast_kmh / 3.6;
+}
 
-  const CheckResult result = run_check(c);
-  // Build every output before writing any, so a failure never leaves a partial set.
-  const std::string json = check_summary_json(result);
-  const bool json_to_stdout = a.profile.json_path == "-";
-  if (!json_to_stdout) out << check_text(result);
-  if (!a.out_dir.empty()) {
-    const auto written = write_check_folder(result, a.out_dir);
-    if (!json_to_stdout) {
-      out << "Report folder: " << a.out_dir << " (";
-      for (std::size_t i = 0; i < written.size(); ++i) out << (i ? ", " : "") << written[i];
-      out << ")\n";
+int run_compare_command(CheckArgs& a, const std::string& other, std::ostream& out) {
+  finish_check_options(a);
+  CheckOptions first = a.check;
+  first.check_reverse = false;
+  CheckOptions second = first;
+  std::string label_a = first.analysis.course_path, label_b;
+  if (other.empty()) {
+    if (!first.analysis.reverse) {
+      second.analysis.reverse = true;
+    } else {
+      first.analysis.reverse = false;
     }
+    label_a += " (as drawn)";
+    label_b = second.analysis.course_path + " (reversed)";
+  } else {
+    second.analysis.course_path = other;
+    label_b = other + (second.analysis.reverse ? " (reversed)" : "");
+    if (first.analysis.reverse) label_a += " (reversed)";
   }
-  if (json_to_stdout) {
-    out << json;
-  } else if (!a.profile.json_path.empty()) {
-    write_file_atomic(a.profile.json_path, json);
+  const CheckResult ra = run_check(first);
+  const CheckResult rb = run_check(second);
+  if (a.profile.json_path == "-") {
+    out << compare_json(ra, rb, label_a, label_b);
+  } else {
+    out << compare_text(ra, rb, label_a, label_b);
+    if (!a.profile.json_path.empty()) write_file_atomic(a.profile.json_path, compare_json(ra, rb, label_a, label_b));
   }
   return 0;
 }
@@ -239,6 +280,13 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
       "check", "the safety check: profile, rider-class speeds, corners, sight lines and hazards");
   add_check_options(*check, check_args);
 
+  CheckArgs compare_args;
+  std::string compare_other;
+  CLI::App* compare = app.add_subcommand(
+      "compare", "check two courses (or one course both ways with --reverse) side by side");
+  add_check_options(*compare, compare_args);
+  compare->add_option("OTHER", compare_other, "the second course (omit to compare COURSE with its reverse)");
+
   std::string riders_file;
   CLI::App* riders = app.add_subcommand("riders", "list the rider classes and their parameters");
   riders->add_option("--riders", riders_file, "TOML file adding or overriding rider classes");
@@ -257,6 +305,7 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   try {
     if (profile->parsed()) return run_profile(profile_args, out);
     if (check->parsed()) return run_check_command(check_args, out);
+    if (compare->parsed()) return run_compare_command(compare_args, compare_other, out);
     if (riders->parsed()) {
       const auto classes = riders_file.empty() ? builtin_rider_classes() : load_rider_classes(riders_file);
       out << riders_table_text(classes);

@@ -37,6 +37,18 @@ std::optional<ElevationComparison> compare_elevations(const std::vector<Station>
   return c;
 }
 
+std::vector<Station> reverse_stations(const std::vector<Station>& stations) {
+  std::vector<Station> out(stations.rbegin(), stations.rend());
+  if (out.empty()) return out;
+  const double length_m = stations.back().distance_m;
+  for (auto& s : out) {
+    s.distance_m = length_m - s.distance_m;
+    s.heading_rad = std::fmod(s.heading_rad + M_PI, 2.0 * M_PI);
+  }
+  out.front().distance_m = 0.0;
+  return out;
+}
+
 CourseAnalysis analyse_course(const AnalysisOptions& options) {
   CourseAnalysis a;
   a.course = read_course(options.course_path, options.read);
@@ -51,6 +63,11 @@ CourseAnalysis analyse_course(const AnalysisOptions& options) {
   a.projection = projection.description();
   a.stations = resample_course(a.course, options.spacing_m, projection);
   a.spacing_m = options.spacing_m;
+  if (options.reverse) {
+    a.stations = reverse_stations(a.stations);
+    a.reversed = true;
+    a.course.notes.push_back("ridden in reverse (from the file's last point to its first)");
+  }
 
   std::vector<double> raw_m;
   double resolution_m = options.spacing_m;

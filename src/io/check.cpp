@@ -7,6 +7,7 @@
 #include <optional>
 #include <unordered_map>
 
+#include "coursewarden/compare.hpp"
 #include "coursewarden/error.hpp"
 #include "coursewarden/sight.hpp"
 
@@ -162,6 +163,16 @@ CheckResult run_check(const CheckOptions& options) {
   in.corner_visible_m = r.corners.empty() ? nullptr : &r.corner_visible_m;
   in.wet = wet;
   r.hazards = find_hazards(in, ho);
+
+  if (options.check_reverse) {
+    CheckOptions back = options;
+    back.check_reverse = false;
+    back.analysis.reverse = !options.analysis.reverse;
+    const CheckResult other = run_check(back);
+    r.reverse.checked = true;
+    r.reverse.counts = count_by_severity(other.hazards);
+    r.reverse.markedly_safer = reverse_markedly_safer(count_by_severity(r.hazards), r.reverse.counts);
+  }
   return r;
 }
 

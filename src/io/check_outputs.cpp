@@ -7,6 +7,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "coursewarden/compare.hpp"
 #include "coursewarden/outputs.hpp"
 #include "io/json_out.hpp"
 #include "io/riders_output.hpp"
@@ -124,6 +125,14 @@ std::string check_summary_json(const CheckResult& c) {
         std::count_if(c.hazards.begin(), c.hazards.end(), [s](const Hazard& h) { return h.severity == s; });
   }
   j["hazard_counts"] = counts;
+  if (c.reverse.checked) {
+    j["reverse_direction"] = {{"note", c.reverse.counts[0]},
+                              {"caution", c.reverse.counts[1]},
+                              {"serious", c.reverse.counts[2]},
+                              {"critical", c.reverse.counts[3]},
+                              {"markedly_safer", c.reverse.markedly_safer}};
+  }
+  j["direction"] = c.analysis.reversed ? "reverse" : "as drawn";
   return j.dump(2) + "\n";
 }
 
@@ -182,8 +191,72 @@ std::string check_text(const CheckResult& c) {
         << pad(std::to_string(h.marshals), 10) << "\n";
     }
   }
+  if (c.reverse.checked) {
+    const auto& rc = c.reverse.counts;
+    o << "\nRidden the other way: " << rc[3] << " critical, " << rc[2] << " serious, " << rc[1] << " caution, "
+      << rc[0] << " note.";
+    if (c.reverse.markedly_safer) o << " The reverse direction has markedly fewer severe hazards: consider it.";
+    o << "\n";
+  }
   o << "\n" << caution;
   return o.str();
+}
+
+std::string compare_text(const CheckResult& a, const CheckResult& b, const std::string& label_a,
+                         const std::string& label_b) {
+  const Comparison cmp = compare_courses(a, b);
+  std::ostringstream o;
+  auto row = [&o](const std::string& what, const std::string& va, const std::string& vb) {
+    o << pad(what, 30, false) << pad(va, 20) << pad(vb, 20) << "\n";
+  };
+  auto cut = [](const std::string& s) { return s.size() > 19 ? s.substr(0, 18) + "~" : s; };
+  o << "Comparing  A = " << label_a << "\n           B = " << label_b << "\n\n";
+  row("", "A", "B");
+  const auto& ta = a.analysis.profile.totals;
+  const auto& tb = b.analysis.profile.totals;
+  row("length km", fmt_fixed(ta.length_m / 1000, 2), fmt_fixed(tb.length_m / 1000, 2));
+  row("ascent m", fmt_fixed(ta.ascent_m, 0), fmt_fixed(tb.ascent_m, 0));
+  row("descent m", fmt_fixed(ta.descent_m, 0), fmt_fixed(tb.descent_m, 0));
+  row("highest point m", fmt_fixed(ta.max_elevation_m, 0), fmt_fixed(tb.max_elevation_m, 0));
+  auto climbs = [](const CheckResult& c) {
+    std::string s;
+    for (const auto& k : c.analysis.climbs)
+      if (!k.category.empty()) s += (s.empty() ? "" : " ") + k.category;
+    return s.empty() ? std::string("none") : s;
+  };
+  row("categorised climbs", cut(climbs(a)), cut(climbs(b)));
+  row("corners", std::to_string(a.corners.size()), std::to_string(b.corners.size()));
+  const auto sa = count_by_severity(a.hazards), sb = count_by_severity(b.hazards);
+  const char* names[4] = {"note", "caution", "serious", "critical"};
+  for (int k = 3; k >= 0; --k) row(std::string("hazards: ") + names[k], std::to_string(sa[k]), std::to_string(sb[k]));
+  o << "Predicted time\n";
+  for (std::size_t k = 0; k < a.classes.size() && k < b.classes.size(); ++k) {
+    row("  " + a.classes[k].name, clock(a.speeds[k].total_time_s), clock(b.speeds[k].total_time_s));
+  }
+  o << "\n";
+  if (cmp.safer < 0) {
+    o << word_wrap(cmp.why, 96);
+  } else {
+    o << word_wrap(std::string(cmp.safer == 0 ? "A" : "B") + " is safer: " + cmp.why, 96);
+  }
+  o << "\n" << word_wrap(kDisclaimer, 96);
+  return o.str();
+}
+
+std::string compare_json(const CheckResult& a, const CheckResult& b, const std::string& label_a,
+                         const std::string& label_b) {
+  const Comparison cmp = compare_courses(a, b);
+  nlohmann::json j;
+  j["disclaimer"] = kDisclaimer;
+  j["a"] = nlohmann::json::parse(check_summary_json(a));
+  j["a"]["label"] = label_a;
+  j["b"] = nlohmann::json::parse(check_summary_json(b));
+  j["b"]["label"] = label_b;
+  j["comparison"] = {{"safer", cmp.safer == 0 ? nlohmann::json("a") : cmp.safer == 1 ? nlohmann::json("b") : nlohmann::json(nullptr)},
+                     {"score_a", cmp.score_a},
+                     {"score_b", cmp.score_b},
+                     {"why", cmp.why}};
+  return j.dump(2) + "\n";
 }
 
 }  // namespace coursewarden
