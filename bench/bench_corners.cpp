@@ -37,7 +37,9 @@ std::vector<Station> winding_course(double length_m, double spacing_m, double no
   double x = 0.0, y = 0.0, h = 0.0, drawn = 0.0;
   while (drawn < length_m) {
     const double l = straight_m(rng);
-    for (double d = 10.0; d <= l; d += 10.0) v.push_back({x + d * std::sin(h), y + d * std::cos(h)});
+    for (double d = 10.0; d <= l; d += 10.0) {
+      v.push_back({x + d * std::sin(h), y + d * std::cos(h)});
+    }
     x += l * std::sin(h);
     y += l * std::cos(h);
     v.push_back({x, y});

@@ -8,6 +8,7 @@
 
 #include "coursewarden/analysis.hpp"
 #include "coursewarden/corners.hpp"
+#include "coursewarden/event_file.hpp"
 #include "coursewarden/hazards.hpp"
 #include "coursewarden/riders.hpp"
 #include "coursewarden/speed.hpp"
@@ -19,12 +20,21 @@ struct CheckOptions {
   std::string riders_path;               ///< TOML file adding or overriding classes; "" = built-in
   std::vector<std::string> class_names;  ///< classes in the field; empty = all known classes
   Environment environment;               ///< weather, wet/dry, start time, assistance cut-off
-  RoadState road;
+  RoadState road;                    ///< the event's default road state
+  SurfaceClass surface = SurfaceClass::smooth_asphalt;  ///< the event's default surface
+  std::vector<RoadSection> sections;  ///< stretches that differ (later sections win)
   CornerOptions corners;
   HazardOptions hazards;
   SimulationOptions simulation;
   bool terrain_sight = true;  ///< also test sight lines against the DEM (hillside on bends)
   bool check_reverse = true;  ///< also check the course ridden the other way (for one line)
+  // The event around the check (from an event file; all optional).
+  std::string event_name;
+  std::string event_date;     ///< YYYY-MM-DD
+  std::string event_path;     ///< the event file
+  std::string scenario_name;  ///< weather scenario
+  EventOps ops;               ///< waves, rules (checkpoints are placed from `checkpoints`)
+  std::vector<CheckpointSpec> checkpoints;
 };
 
 /// Hazard counts of the same course ridden the other way.
@@ -47,7 +57,13 @@ struct CheckResult {
   RoadState road;
   HazardOptions hazard_options;
   ReverseSummary reverse;
+  std::string event_name, event_date, event_path, scenario_name;
+  EventOps ops;  ///< with every checkpoint placed on the course (at_m)
 };
+
+/// The road state at a distance along the course: the default, overridden by the sections that
+/// cover it.
+RoadState road_state_at(const CheckOptions& options, double at_m);
 
 /// Runs the check. Throws Error with a one-line message for unusable input.
 CheckResult run_check(const CheckOptions& options);

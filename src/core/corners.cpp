@@ -212,8 +212,8 @@ struct TurnField {
 };
 
 // Direction of the stations j..j+chord: the chord itself for two stations, otherwise the
-// principal axis of the points (a least-squares line, which halves the effect of GPS noise on
-// long windows), pointed the way of travel.
+// principal axis of the points (a least-squares line, steadier under GPS noise than the chord
+// through the two end stations), pointed the way of travel.
 double local_heading_rad(const Track& track, std::size_t j, std::size_t chord) {
   const PlanePoint& a = track.points[j];
   const PlanePoint& b = track.points[j + chord];
@@ -478,23 +478,25 @@ double sum_of_squares(const FilletPath& path, const Track& track, std::size_t fi
   return sum;
 }
 
-// Radius in [lo, hi] minimising the sum of squares: a scan on a geometric grid, then golden
-// section between the neighbours of the best grid point.
+// Radius in [lo, hi] minimising the sum of squares: a scan on an even grid (even in radius is
+// even in the position of the tangent points, which move R tan(D/2) along the legs; the sum is
+// flat wherever the arc misses the stations, so a coarse grid can miss a narrow valley), then
+// golden section between the neighbours of the best grid point.
 double best_fillet_radius_m(const FilletPath& path, const Track& track, std::size_t first,
                             std::size_t last, double lo, double hi) {
-  constexpr int kGrid = 16;
-  const double ratio = std::pow(hi / lo, 1.0 / kGrid);
+  constexpr int kGrid = 32;
+  const double step = (hi - lo) / kGrid;
   int best = 0;
   double best_value = kInfinity;
   for (int k = 0; k <= kGrid; ++k) {
-    const double value = sum_of_squares(path, track, first, last, lo * std::pow(ratio, k));
+    const double value = sum_of_squares(path, track, first, last, lo + step * k);
     if (value < best_value) {
       best_value = value;
       best = k;
     }
   }
-  double a = lo * std::pow(ratio, std::max(0, best - 1));
-  double b = lo * std::pow(ratio, std::min(kGrid, best + 1));
+  double a = lo + step * std::max(0, best - 1);
+  double b = lo + step * std::min(kGrid, best + 1);
   const double g = 0.5 * (std::sqrt(5.0) - 1.0);
   double x1 = b - g * (b - a), x2 = a + g * (b - a);
   double f1 = sum_of_squares(path, track, first, last, x1);
@@ -840,7 +842,8 @@ void fit_between_legs(const Scene& sc, const Bend& b, double deflection, const B
   if (!std::isfinite(hi)) return;
   // Smallest radius tried: on a noisy track the noise itself (a fit cannot tell a circle
   // tighter than a few sigma from a sharp corner); otherwise a hundredth of the spacing.
-  const double lo = sc.clean() ? 0.01 * sc.spacing_m : std::max(0.5 * sc.spacing_m, 2.0 * sc.noise_m);
+  const double lo =
+      sc.clean() ? 0.01 * sc.spacing_m : std::max(0.5 * sc.spacing_m, 2.0 * sc.noise_m);
   if (!(hi > lo)) return;
   const double r = best_fillet_radius_m(path, t, shape.first, shape.last, lo, hi);
   // On a clean line both estimates are sound and the tighter is kept: the fillet is exact for a

@@ -27,7 +27,7 @@ public:
     const long cx = static_cast<long>(std::floor(x_m / kCell)), cy = static_cast<long>(std::floor(y_m / kCell));
     const long long key = (static_cast<long long>(cx) << 32) ^ (cy & 0xffffffffLL);
     auto it = cells_.find(key);
-    if (it == cells_.end()) it = cells_.emplace(key, fit(cx * kCell, cy * kCell)).first;
+    if (it == cells_.end()) it = cells_.emplace(key, fit(static_cast<double>(cx) * kCell, static_cast<double>(cy) * kCell)).first;
     const Affine& a = it->second;
     const double u = x_m - a.x0, v = y_m - a.y0;
     return dem_.sample_native(a.nx + a.dxu * u + a.dxv * v, a.ny + a.dyu * u + a.dyv * v);
@@ -81,6 +81,17 @@ std::vector<RiderClass> select_classes(const std::vector<RiderClass>& known,
   return out;
 }
 
+RoadState road_state_at(const CheckOptions& options, double at_m) {
+  RoadState road = options.road;
+  for (const RoadSection& sec : options.sections) {
+    if (at_m < sec.from_m || at_m > sec.to_m) continue;
+    if (sec.closed) road.closed = *sec.closed;
+    if (sec.road_width_m) road.road_width_m = *sec.road_width_m;
+    if (sec.lane_width_m) road.lane_width_m = *sec.lane_width_m;
+  }
+  return road;
+}
+
 CheckResult run_check(const CheckOptions& options) {
   CheckResult r;
   r.environment = options.environment;
@@ -96,7 +107,7 @@ CheckResult run_check(const CheckOptions& options) {
   const bool wet = options.environment.wet;
 
   r.corners = find_corners(a.stations, options.corners);
-  for (const Corner& c : r.corners) r.path_radius_m.push_back(path_radius_m(c, options.road));
+  for (const Corner& c : r.corners) r.path_radius_m.push_back(path_radius_m(c, road_state_at(options, c.apex_m)));
 
   // Speeds: corner paths cap each class by its own comfortable lean (turn radius) and all
   // classes by grip (corner limit).
@@ -112,6 +123,15 @@ CheckResult run_check(const CheckOptions& options) {
       if (a.stations[i].distance_m < c.entry_m || a.stations[i].distance_m > c.exit_m) continue;
       slice.turn_radius_m[i] = std::min(slice.turn_radius_m[i], r.path_radius_m[k]);
       slice.corner_limit_mps[i] = std::min(slice.corner_limit_mps[i], grip);
+    }
+  }
+  if (options.surface != SurfaceClass::smooth_asphalt ||
+      std::any_of(options.sections.begin(), options.sections.end(), [](const RoadSection& s) { return s.surface.has_value(); })) {
+    slice.surface.assign(n, options.surface);
+    for (const RoadSection& sec : options.sections) {
+      if (!sec.surface) continue;
+      for (std::size_t i = 0; i < n; ++i)
+        if (a.stations[i].distance_m >= sec.from_m && a.stations[i].distance_m <= sec.to_m) slice.surface[i] = *sec.surface;
     }
   }
   const PreparedCourse prepared = prepare_course(slice, options.environment);
@@ -163,6 +183,41 @@ CheckResult run_check(const CheckOptions& options) {
   in.corner_visible_m = r.corners.empty() ? nullptr : &r.corner_visible_m;
   in.wet = wet;
   r.hazards = find_hazards(in, ho);
+
+  r.event_name = options.event_name;
+  r.event_date = options.event_date;
+  r.event_path = options.event_path;
+  r.scenario_name = options.scenario_name;
+  r.ops = options.ops;
+  r.ops.checkpoints.clear();
+  for (const CheckpointSpec& spec : options.checkpoints) {
+    Checkpoint cp = spec.checkpoint;
+    if (spec.lon_deg && spec.lat_deg) {
+      // The nearest station, by an equirectangular approximation (ample for 500 m).
+      double best = std::numeric_limits<double>::infinity();
+      for (const Station& st : a.stations) {
+        const double dx = (st.lon_deg - *spec.lon_deg) * std::cos(st.lat_deg * 3.14159265358979323846 / 180.0);
+        const double dy = st.lat_deg - *spec.lat_deg;
+        const double d2 = dx * dx + dy * dy;
+        if (d2 < best) {
+          best = d2;
+          cp.at_m = st.distance_m;
+        }
+      }
+      if (std::sqrt(best) * 111195.0 > 500.0) {
+        fail(options.event_path, "checkpoint '" + cp.name + "'",
+             "its coordinates are more than 500 m from the course; check lat and lon");
+      }
+    } else {
+      if (cp.at_m > a.profile.totals.length_m + 1.0) {
+        fail(options.event_path, "checkpoint '" + cp.name + "'",
+             "at_km lies beyond the end of the course; check the distance");
+      }
+      // Distances in the event file are along the course as drawn.
+      if (options.analysis.reverse) cp.at_m = std::max(0.0, a.profile.totals.length_m - cp.at_m);
+    }
+    r.ops.checkpoints.push_back(cp);
+  }
 
   if (options.check_reverse) {
     CheckOptions back = options;

@@ -193,10 +193,10 @@ std::string check_text(const CheckResult& c) {
   }
   if (c.reverse.checked) {
     const auto& rc = c.reverse.counts;
-    o << "\nRidden the other way: " << rc[3] << " critical, " << rc[2] << " serious, " << rc[1] << " caution, "
-      << rc[0] << " note.";
-    if (c.reverse.markedly_safer) o << " The reverse direction has markedly fewer severe hazards: consider it.";
-    o << "\n";
+    std::string line = "Ridden the other way: " + std::to_string(rc[3]) + " critical, " + std::to_string(rc[2]) +
+                       " serious, " + std::to_string(rc[1]) + " caution, " + std::to_string(rc[0]) + " note.";
+    if (c.reverse.markedly_safer) line += " The reverse direction has markedly fewer severe hazards: consider it.";
+    o << "\n" << word_wrap(line, 96);
   }
   o << "\n" << caution;
   return o.str();
