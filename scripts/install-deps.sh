@@ -15,6 +15,7 @@ packages=(
   libcli11-dev libtomlplusplus-dev nlohmann-json3-dev
   libgtest-dev libgmock-dev libbenchmark-dev
   locales
+  chromium fonts-dejavu-core nodejs
 )
 missing=()
 for p in "${packages[@]}"; do

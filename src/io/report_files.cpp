@@ -6,21 +6,31 @@
 
 #include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
+#include "coursewarden/gis_outputs.hpp"
 #include "coursewarden/outputs.hpp"
 
 namespace coursewarden {
 
 const std::vector<std::string>& check_folder_files() {
-  static const std::vector<std::string> names = {"summary.json", "profile.csv"};
+  static const std::vector<std::string> names = {
+      "summary.json",  "profile.csv",    "report.html",    "hazards.csv",
+      "hazards.geojson", "hazards.gpx", "course.geojson", "climbs.geojson"};
   return names;
 }
 
-std::vector<std::string> write_check_folder(const CheckResult& result, const std::string& dir) {
+std::vector<std::string> write_check_folder(const CheckResult& result, const std::string& dir,
+                                            const ReportInfo& info) {
   namespace fs = std::filesystem;
-  // Everything is built before anything is written.
+  // Everything is built before anything is written, in the order of check_folder_files().
   std::vector<std::pair<std::string, std::string>> files = {
       {"summary.json", check_summary_json(result)},
       {"profile.csv", check_profile_csv(result)},
+      {"report.html", report_html(result, info)},
+      {"hazards.csv", hazards_csv(result)},
+      {"hazards.geojson", hazards_geojson(result)},
+      {"hazards.gpx", hazards_gpx(result)},
+      {"course.geojson", course_geojson(result)},
+      {"climbs.geojson", climbs_geojson(result)},
   };
   std::error_code ec;
   if (fs::exists(dir, ec) && !fs::is_directory(dir, ec)) {
@@ -34,6 +44,12 @@ std::vector<std::string> write_check_folder(const CheckResult& result, const std
     written.push_back(name);
   }
   return written;
+}
+
+std::vector<std::string> write_check_folder(const CheckResult& result, const std::string& dir) {
+  ReportInfo info;
+  info.check_date = utc_date_today();
+  return write_check_folder(result, dir, info);
 }
 
 }  // namespace coursewarden
