@@ -56,6 +56,7 @@ struct CourseAnalysis {
   DemInfo dem;  ///< empty when heights came from the course file
   Profile profile;
   std::vector<Climb> climbs;
+  CategoryScale category_scale;  ///< the scale the climbs were categorised on
   std::optional<ElevationComparison> comparison;
 };
 

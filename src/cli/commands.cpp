@@ -60,9 +60,9 @@ std::vector<BatchItem> batch_items(const CheckArgs& parsed, const std::vector<st
 void write_outputs(const CheckResult& result, const std::string& dir, std::ostream& out, bool quiet) {
   const auto written = write_check_folder(result, dir);
   if (quiet) return;
-  out << "Report folder: " << dir << " (";
-  for (std::size_t i = 0; i < written.size(); ++i) out << (i ? ", " : "") << written[i];
-  out << ")\n";
+  std::string files;
+  for (std::size_t i = 0; i < written.size(); ++i) files += (i ? ", " : "") + written[i];
+  out << "Report folder: " << dir << "\n" << word_wrap("Files: " + files, 96);
 }
 
 }  // namespace

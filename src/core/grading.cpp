@@ -162,13 +162,23 @@ void grade_walking(ClassGrade& g, const SpeedProfile& sp, const OperationsRules&
   }
 }
 
+// True when the class, arriving unbraked, cannot reach its safe speed even with its hardest
+// braking on the straight before the corner: a misjudgement there cannot be rescued.
+bool beyond_hardest_braking(const Hazard& h, const std::string& name) {
+  for (const ClassAtCorner& a : h.classes)
+    if (a.class_name == name) return a.too_fast && a.braking_distance_hard_m > a.room_m;
+  return false;
+}
+
 void grade_hazards(ClassGrade& g, const CheckResult& r, const OperationsRules& rules) {
   std::vector<std::string> codes;
+  int beyond = 0;
   for (const Hazard& h : r.hazards) {
     const Severity sev = severity_for_class(h, g.class_name);
     if (sev == Severity::critical) ++g.critical_hazards;
     if (sev == Severity::serious) ++g.serious_hazards;
     if (sev >= Severity::serious) codes.push_back(hazard_code(h.number, r.hazards.size()));
+    if (sev == Severity::critical && beyond_hardest_braking(h, g.class_name)) ++beyond;
   }
   if (codes.empty()) return;
   std::string counts;
@@ -176,10 +186,14 @@ void grade_hazards(ClassGrade& g, const CheckResult& r, const OperationsRules& r
   if (g.serious_hazards > 0) {
     counts += (counts.empty() ? "" : " and ") + std::to_string(g.serious_hazards) + " serious";
   }
-  const std::string text = counts + (codes.size() == 1 ? " hazard: " : " hazards: ") + joined(codes);
-  add(g, g.critical_hazards >= rules.critical_hazards_unsuitable ? Suitability::unsuitable
-                                                                  : Suitability::demanding,
-      text);
+  std::string text = counts + (codes.size() == 1 ? " hazard: " : " hazards: ") + joined(codes);
+  if (beyond > 0) {
+    text += "; at " + std::to_string(beyond) + " of them even its hardest braking cannot reach a safe speed "
+            "in the straight before the corner";
+  }
+  // Serious and critical hazards make a course demanding for a class; it becomes unsuitable when
+  // several critical ones could not be rescued by hard braking (our assumption, docs/operations.md).
+  add(g, beyond >= rules.critical_hazards_unsuitable ? Suitability::unsuitable : Suitability::demanding, text);
 }
 
 }  // namespace

@@ -21,7 +21,6 @@ std::size_t index_at(const std::vector<double>& d, double at_m) {
 }
 
 std::string kmh(double mps) { return fmt_fixed(mps * 3.6, 0) + " km/h"; }
-std::string km(double m) { return "km " + fmt_fixed(m / 1000.0, 2); }
 std::string deg(double rad) { return fmt_fixed(rad * 180.0 / 3.14159265358979323846, 0) + " deg"; }
 
 Severity raise(Severity s, int levels) {
@@ -120,8 +119,10 @@ std::vector<Hazard> corner_hazards(const HazardInputs& in, const HazardOptions& 
       h.reason = "Sharp " + shape + (after_descent ? " at the bottom of a descent" : "") + ": " +
                  std::to_string(too_fast) + " of " + std::to_string(classes.size()) +
                  " classes arrive too fast (up to " + kmh(fastest_entry) + " against a safe " +
-                 kmh(slowest_safe) + "); braking needs up to " + fmt_fixed(worst_braking, 0) +
-                 " m with " + fmt_fixed(corner.straight_before_m, 0) + " m of straight before it" +
+                 kmh(slowest_safe) + "); braking needs up to " + fmt_fixed(worst_braking, 0) + " m " +
+                 (corner.straight_before_m > 1000.0
+                      ? std::string("on a long straight approach")
+                      : "with " + fmt_fixed(corner.straight_before_m, 0) + " m of straight before it") +
                  (h.hidden ? "; hidden until late" : "") + ".";
     } else if (h.hidden) {
       h.kind = HazardKind::hidden_corner;

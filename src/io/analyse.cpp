@@ -118,6 +118,7 @@ CourseAnalysis analyse_course(const AnalysisOptions& options) {
   a.profile = build_profile(a.stations, raw_m, resolution_m, options.profile,
                             a.used_dem ? options.dem_path : options.course_path);
   a.climbs = find_climbs(a.profile.distance_m, a.profile.elevation_m, options.climbs);
+  a.category_scale = options.climbs.scale;
   return a;
 }
 

@@ -8,6 +8,8 @@
 #include <sstream>
 
 #include "coursewarden/compare.hpp"
+#include "coursewarden/operations.hpp"
+#include "coursewarden/ops_outputs.hpp"
 #include "coursewarden/outputs.hpp"
 #include "io/json_out.hpp"
 #include "io/riders_output.hpp"
@@ -100,6 +102,58 @@ std::string clock(double seconds) {
   return std::to_string(h) + "h" + (m < 10 ? "0" : "") + std::to_string(m);
 }
 
+nlohmann::json clock_json(double s) {
+  return std::isfinite(s) ? nlohmann::json(clock_hms(s)) : nlohmann::json(nullptr);
+}
+
+void add_operations_json(nlohmann::json& j, const CheckResult& c, const Operations& ops) {
+  auto rows = nlohmann::json::array();
+  for (const ScheduleRow& row : ops.schedule.rows) {
+    nlohmann::json rj = {{"kind", schedule_kind_key(row.kind)},
+                         {"label", row.label},
+                         {"at_m", r(row.at_m, 1)},
+                         {"earliest", clock_json(row.earliest_s)},
+                         {"earliest_class", row.earliest_class},
+                         {"latest", clock_json(row.latest_s)},
+                         {"latest_class", row.latest_class},
+                         {"closing_vehicle", clock_json(row.closing_s)},
+                         {"road_closed_from", clock_json(row.closure_open_s)},
+                         {"road_closed_until", clock_json(row.closure_close_s)}};
+    if (std::isfinite(row.cutoff_s)) {
+      rj["cutoff"] = clock_json(row.cutoff_s);
+      rj["classes_missing_cutoff"] = row.classes_missing_cutoff;
+    }
+    rows.push_back(rj);
+  }
+  j["schedule"] = rows;
+  auto posts = nlohmann::json::array();
+  for (const MarshalPost& p : ops.marshal_plan.posts) {
+    posts.push_back({{"code", p.code},
+                     {"at_m", r(p.at_m, 1)},
+                     {"marshals", p.count},
+                     {"on_post", clock_json(p.on_post_s)},
+                     {"off_post", clock_json(p.off_post_s)},
+                     {"warn", p.warn},
+                     {"hazards", p.hazards},
+                     {"lon", r(p.lon_deg, 7)},
+                     {"lat", r(p.lat_deg, 7)}});
+  }
+  j["marshal_plan"] = {{"posts", posts},
+                       {"marshals_needed", ops.marshal_plan.marshals_needed},
+                       {"peak_posts", ops.marshal_plan.peak_posts},
+                       {"peak_marshals", ops.marshal_plan.peak_marshals}};
+  auto classes = nlohmann::json::array();
+  for (const ClassGrade& g : ops.grading.classes) {
+    auto reasons = nlohmann::json::array();
+    for (const GradeReason& why : g.reasons) reasons.push_back(why.text);
+    classes.push_back({{"name", g.class_name}, {"verdict", suitability_name(g.verdict)}, {"reasons", reasons}});
+  }
+  const CourseGrade& cg = ops.grading.course;
+  j["grading"] = {{"classes", classes},
+                  {"course", {{"level", cg.level}, {"name", cg.name}, {"meaning", cg.meaning}}}};
+  (void)c;
+}
+
 }  // namespace
 
 std::string check_summary_json(const CheckResult& c) {
@@ -133,6 +187,9 @@ std::string check_summary_json(const CheckResult& c) {
                               {"markedly_safer", c.reverse.markedly_safer}};
   }
   j["direction"] = c.analysis.reversed ? "reverse" : "as drawn";
+  if (!c.event_name.empty()) j["event"] = {{"name", c.event_name}, {"date", c.event_date}, {"file", c.event_path}};
+  if (!c.scenario_name.empty()) j["conditions"]["scenario"] = c.scenario_name;
+  add_operations_json(j, c, plan_operations(c));
   return j.dump(2) + "\n";
 }
 
@@ -154,6 +211,7 @@ std::string check_profile_csv(const CheckResult& c) {
 }
 
 std::string check_text(const CheckResult& c) {
+  const Operations ops = plan_operations(c);
   std::string text = profile_text(c.analysis);
   // profile_text ends with the caution; keep it for the very end of the check's text.
   const std::string caution = word_wrap(kDisclaimer, 96);
@@ -198,6 +256,7 @@ std::string check_text(const CheckResult& c) {
     if (c.reverse.markedly_safer) line += " The reverse direction has markedly fewer severe hazards: consider it.";
     o << "\n" << word_wrap(line, 96);
   }
+  o << "\n" << operations_text(ops.schedule, ops.marshal_plan, ops.grading);
   o << "\n" << caution;
   return o.str();
 }

@@ -7,6 +7,8 @@
 #include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
 #include "coursewarden/gis_outputs.hpp"
+#include "coursewarden/operations.hpp"
+#include "coursewarden/ops_outputs.hpp"
 #include "coursewarden/outputs.hpp"
 
 namespace coursewarden {
@@ -14,7 +16,8 @@ namespace coursewarden {
 const std::vector<std::string>& check_folder_files() {
   static const std::vector<std::string> names = {
       "summary.json",  "profile.csv",    "report.html",    "hazards.csv",
-      "hazards.geojson", "hazards.gpx", "course.geojson", "climbs.geojson"};
+      "hazards.geojson", "hazards.gpx", "course.geojson", "climbs.geojson",
+      "schedule.csv",  "marshal-plan.csv", "marshal-plan.gpx"};
   return names;
 }
 
@@ -32,6 +35,10 @@ std::vector<std::string> write_check_folder(const CheckResult& result, const std
       {"course.geojson", course_geojson(result)},
       {"climbs.geojson", climbs_geojson(result)},
   };
+  const Operations ops = plan_operations(result);
+  files.emplace_back("schedule.csv", schedule_csv(ops.schedule));
+  files.emplace_back("marshal-plan.csv", marshal_plan_csv(ops.marshal_plan));
+  files.emplace_back("marshal-plan.gpx", marshal_plan_gpx(result, ops.marshal_plan));
   std::error_code ec;
   if (fs::exists(dir, ec) && !fs::is_directory(dir, ec)) {
     fail(dir, "--out", "exists and is not a folder; give a folder for the outputs");

@@ -139,7 +139,9 @@ TEST(CheckHazards, BendAtTheFootOfALongDescentIsFlaggedForClassesThatArriveTooFa
     const bool flagged = h && std::any_of(h->classes.begin(), h->classes.end(), [&](const ClassAtCorner& a) {
                            return a.class_name == rc.name && a.too_fast;
                          });
-    if (std::abs(terminal - safe) > 0.02 * safe) EXPECT_EQ(flagged, too_fast) << rc.name;
+    if (std::abs(terminal - safe) > 0.02 * safe) {
+      EXPECT_EQ(flagged, too_fast) << rc.name;
+    }
   }
   ASSERT_GT(expected_too_fast, 0u) << "the scene must be a hazard for some class";
   ASSERT_NE(h, nullptr);

@@ -78,7 +78,7 @@ Suitability verdict_with_walking(std::vector<DistanceRange> sections) {
   return grade_one(r, mass_start()).verdict;
 }
 
-Hazard corner_hazard(int number, const std::string& cls, Severity severity) {
+Hazard corner_hazard(int number, const std::string& cls, Severity severity, bool beyond_braking = true) {
   Hazard h;
   h.number = number;
   h.kind = HazardKind::corner_too_fast;
@@ -88,14 +88,16 @@ Hazard corner_hazard(int number, const std::string& cls, Severity severity) {
   a.class_name = cls;
   a.too_fast = true;
   a.severity = severity;
+  a.room_m = 100.0;
+  a.braking_distance_hard_m = beyond_braking ? 150.0 : 60.0;
   h.classes.push_back(a);
   return h;
 }
 
-Suitability verdict_with_hazards(const std::vector<Severity>& severities) {
+Suitability verdict_with_hazards(const std::vector<Severity>& severities, bool beyond_braking = true) {
   CheckResult r = steady();
   int n = 0;
-  for (Severity s : severities) r.hazards.push_back(corner_hazard(++n, "steady", s));
+  for (Severity s : severities) r.hazards.push_back(corner_hazard(++n, "steady", s, beyond_braking));
   return grade_one(r, mass_start()).verdict;
 }
 
@@ -142,11 +144,13 @@ TEST(GradingWalking, AnyWalkingIsDemandingAndMoreThanTheLimitUnsuitable) {
   EXPECT_EQ(verdict_with_walking({{1000.0, 1301.0}}), Suitability::unsuitable);  // 301 m > 300 m
 }
 
-TEST(GradingHazards, SeriousOrOneCriticalIsDemandingAndTwoCriticalUnsuitable) {
+TEST(GradingHazards, SeriousOrOneCriticalIsDemandingAndTwoUnrescuableCriticalUnsuitable) {
   EXPECT_EQ(verdict_with_hazards({Severity::caution, Severity::caution}), Suitability::suitable);
   EXPECT_EQ(verdict_with_hazards({Severity::serious}), Suitability::demanding);
   EXPECT_EQ(verdict_with_hazards({Severity::critical, Severity::serious}), Suitability::demanding);
   EXPECT_EQ(verdict_with_hazards({Severity::critical, Severity::critical}), Suitability::unsuitable);
+  // Critical corners the class could still rescue with its hardest braking only make it demanding.
+  EXPECT_EQ(verdict_with_hazards({Severity::critical, Severity::critical}, false), Suitability::demanding);
 }
 
 TEST(GradingHazards, HazardsNotListingTheClassDoNotCount) {
