@@ -266,7 +266,9 @@ EventFile load_event_file(const std::string& path) {
     r.only(*rules, "rules.", {"marshal_lead_min", "marshal_lead_max_min", "marshal_release_min", "marshals_per_turn",
                               "merge_posts_within_m", "sector_km", "closing_speed_kmh", "closure_before_min",
                               "closure_after_min", "time_limit_h", "max_walking_m", "critical_hazards_unsuitable",
-                              "fast_speed_kmh", "assist_cutoff_kmh"});
+                              "fast_speed_kmh", "assist_cutoff_kmh", "closing_grace_min", "merged_post_extra_from_m",
+                              "max_posts_per_sector", "schedule_step_km", "demanding_time_share_pct",
+                              "cutoff_margin_min"});
     OperationsRules& o = ev.rules;
     const std::string p = "rules.";
     if (auto v = r.number(*rules, p, "marshal_lead_min", 0, 240, "min")) o.marshal_lead_s = *v * 60.0;
@@ -286,6 +288,14 @@ EventFile load_event_file(const std::string& path) {
     if (auto v = r.number(*rules, p, "critical_hazards_unsuitable", 1, 1000, "hazards")) {
       o.critical_hazards_unsuitable = static_cast<int>(*v);
     }
+    if (auto v = r.number(*rules, p, "closing_grace_min", 0, 120, "min")) o.closing_grace_s = *v * 60.0;
+    if (auto v = r.number(*rules, p, "merged_post_extra_from_m", 0, 2000, "m")) o.merged_post_extra_from_m = *v;
+    if (auto v = r.number(*rules, p, "max_posts_per_sector", 1, 100, "posts")) {
+      o.max_posts_per_sector = static_cast<std::size_t>(*v);
+    }
+    if (auto v = r.number(*rules, p, "schedule_step_km", 0.1, 100, "km")) o.schedule_step_m = *v * 1000.0;
+    if (auto v = r.number(*rules, p, "demanding_time_share_pct", 10, 100, "%")) o.demanding_time_share = *v / 100.0;
+    if (auto v = r.number(*rules, p, "cutoff_margin_min", 0, 240, "min")) o.cutoff_margin_s = *v * 60.0;
     if (auto v = r.number(*rules, p, "fast_speed_kmh", 20, 150, "km/h")) ev.fast_speed_mps = *v / 3.6;
     if (auto v = r.number(*rules, p, "assist_cutoff_kmh", 5, 60, "km/h")) ev.assist_cutoff_mps = *v / 3.6;
   }
