@@ -3,6 +3,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include <cmath>
 #include <filesystem>
 #include <sstream>
 
@@ -160,4 +161,41 @@ TEST(EventFile, InitWritesAnExampleAndRefusesToOverwrite) {
   EXPECT_TRUE(std::filesystem::exists(ev.dem_path)) << ev.dem_path;
   EXPECT_EQ(run_cli({"init", kSample + "/course.gpx", "--output", target}, out, err), 1);
   EXPECT_NE(err.find("--force"), std::string::npos);
+}
+
+TEST(EventFile, WavesAndCheckpointsReachTheScheduleMarshalPlanAndGrading) {
+  cwtest::TempDir dir;
+  const std::string f = dir.file("ops.toml");
+  cwtest::write_text(f, "[event]\nname = \"Ops test\"\ncourse = \"" + kSample + "/course.gpx\"\ndem = \"" + kSample +
+                            "/dem.tif\"\n[field]\nclasses = [\"club\", \"racer\"]\n"
+                            "[[start]]\nname = \"A\"\ntime = \"08:00\"\nclasses = [\"racer\"]\n"
+                            "[[start]]\nname = \"B\"\ntime = \"08:30\"\nclasses = [\"club\"]\n"
+                            "[[checkpoint]]\nname = \"col\"\nkind = \"cut-off\"\nat_km = 39.7\ncutoff = \"09:30\"\n"
+                            "[rules]\ntime_limit_h = 6\n");
+  std::string out, err;
+  ASSERT_EQ(run_cli({"check", f, "--no-reverse-check", "--json", "-"}, out, err), 0) << err;
+  const auto j = nlohmann::json::parse(out);
+  EXPECT_EQ(j["event"]["name"], "Ops test");
+  nlohmann::json col;
+  for (const auto& row : j["schedule"])
+    if (row["label"] == "col") col = row;
+  ASSERT_FALSE(col.is_null());
+  EXPECT_EQ(col["earliest_class"], "racer");
+  EXPECT_EQ(col["latest_class"], "club");
+  // Rough arrival at km 39.7 from each class's whole-course time (riders[].time_s) pro rata:
+  // racer about 08:00 + 0.58 x 1 h 54 = 09:06, club about 08:30 + 0.58 x 2 h 31 = 09:58 (derived
+  // from the summary's own times); with a 09:30 cut-off only the club misses it.
+  for (const auto& rider : j["riders"]) {
+    const double start = rider["name"] == "racer" ? 8 * 3600.0 : 8.5 * 3600.0;
+    const double eta = start + rider["time_s"].get<double>() * 39700.0 / j["length_m"].get<double>();
+    EXPECT_GT(std::abs(eta - 9.5 * 3600.0), 600.0) << "premise: not within 10 min of the cut-off";
+  }
+  EXPECT_EQ(col["classes_missing_cutoff"], nlohmann::json::array({"club"}));
+  EXPECT_FALSE(j["marshal_plan"]["posts"].empty());
+  EXPECT_GE(j["marshal_plan"]["marshals_needed"].get<int>(), static_cast<int>(j["marshal_plan"]["posts"].size()));
+  ASSERT_EQ(j["grading"]["classes"].size(), 2u);
+  for (const auto& g : j["grading"]["classes"]) {
+    if (g["name"] == "club") EXPECT_EQ(g["verdict"], "unsuitable");  // misses the cut-off
+  }
+  EXPECT_GE(j["grading"]["course"]["level"].get<int>(), 1);
 }
