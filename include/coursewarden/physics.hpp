@@ -108,10 +108,4 @@ double isa_air_density_kgpm3(double elevation_m);
 /// blows FROM `wind_from_rad` (clockwise from north) at `wind_speed_mps`. Positive: headwind.
 double headwind_mps(double wind_speed_mps, double wind_from_rad, double heading_rad);
 
-// ---- corners
-
-/// Speed at which a bicycle takes a flat turn of radius `radius_m` at lean angle `lean_rad`
-/// without slip: tan(lean) = V^2 / (g R). +inf for an infinite radius.
-double corner_speed_mps(double radius_m, double lean_rad);
-
 }  // namespace coursewarden

@@ -2,6 +2,7 @@
 // radius, sparse-vertex rule, hairpins, S-bends, compound bends), the path radius allowed by the
 // road state, and the safe speed through a corner. Method and sources: docs/corners.md.
 #include "coursewarden/corners.hpp"
+#include "coursewarden/physics.hpp"
 
 #include <boost/geometry.hpp>
 
@@ -21,7 +22,6 @@ namespace bg = boost::geometry;
 using PlanePoint = bg::model::d2::point_xy<double>;
 
 constexpr double kPi = std::numbers::pi;
-constexpr double kGravity_mps2 = 9.80665;  // standard gravity
 constexpr double kInfinity = std::numeric_limits<double>::infinity();
 // 1 / Phi^-1(3/4): turns a median absolute deviation into a normal standard deviation.
 constexpr double kMadToSigma = 1.482602218505602;

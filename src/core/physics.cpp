@@ -122,9 +122,4 @@ double headwind_mps(double wind_speed_mps, double wind_from_rad, double heading_
   return wind_speed_mps * std::cos(wind_from_rad - heading_rad);
 }
 
-double corner_speed_mps(double radius_m, double lean_rad) {
-  if (std::isinf(radius_m)) return std::numeric_limits<double>::infinity();
-  return std::sqrt(kGravity_mps2 * radius_m * std::tan(lean_rad));
-}
-
 }  // namespace coursewarden

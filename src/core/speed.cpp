@@ -1,6 +1,8 @@
 // Speed profiles of a rider class along the course: energy integrated along distance.
 #include "coursewarden/speed.hpp"
 
+#include "coursewarden/corners.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -327,7 +329,7 @@ SpeedProfile simulate_class(const RiderClass& rider, const PreparedCourse& cours
   for (std::size_t i = 0; i < n; ++i) {
     double lim = std::min(rider.max_speed_mps, course.limit_mps[i]);
     if (std::isfinite(course.turn_radius_m[i]))
-      lim = std::min(lim, corner_speed_mps(course.turn_radius_m[i], lean));
+      lim = std::min(lim, lean_limited_speed_mps(course.turn_radius_m[i], lean));
     envelope[i] = std::max(lim, floor_mps);
   }
   // Backward pass: the highest speed at each station from which comfortable braking still

@@ -630,3 +630,10 @@ TEST(CornerSpeed, BadArgumentsAreRefused) {
 
 }  // namespace
 }  // namespace coursewarden
+
+namespace coursewarden {
+TEST(CornerSpeed, AStraightRoadHasNoLeanLimit) {
+  // An infinite radius (a straight) puts no cap on speed: the speed model relies on it.
+  EXPECT_TRUE(std::isinf(lean_limited_speed_mps(std::numeric_limits<double>::infinity(), 0.3)));
+}
+}  // namespace coursewarden

@@ -12,6 +12,7 @@
 #include "coursewarden/error.hpp"
 #include "coursewarden/physics.hpp"
 #include "coursewarden/riders.hpp"
+#include "coursewarden/corners.hpp"
 #include "coursewarden/speed.hpp"
 
 namespace coursewarden {
@@ -231,8 +232,8 @@ TEST(SpeedModel, WetRoadBrakesEarlierAndTakesBendsSlower) {
   const SpeedProfile pd = simulate_class(r, s, dry);
   const SpeedProfile pw = simulate_class(r, s, wet);
   // derived: tan(lean) = V^2 / (g R) with the class's comfortable lean (check-values.md s. 3).
-  EXPECT_NEAR(pd.planned_speed_mps[bend], corner_speed_mps(20.0, r.lean_comfort_dry_rad), 1e-9);
-  EXPECT_NEAR(pw.planned_speed_mps[bend], corner_speed_mps(20.0, r.lean_comfort_wet_rad), 1e-9);
+  EXPECT_NEAR(pd.planned_speed_mps[bend], lean_limited_speed_mps(20.0, r.lean_comfort_dry_rad), 1e-9);
+  EXPECT_NEAR(pw.planned_speed_mps[bend], lean_limited_speed_mps(20.0, r.lean_comfort_wet_rad), 1e-9);
   // Braking starts earlier in the wet: 60 m before the bend the dry rider has not started to
   // brake (it needs about 48 m), the wet one has (about 106 m).
   const std::size_t before = station_at(s, 1940.0);
