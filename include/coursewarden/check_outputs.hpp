@@ -11,8 +11,8 @@ namespace coursewarden {
 /// hazards[] (docs/output-formats.md).
 std::string check_summary_json(const CheckResult& result);
 
-/// One row per station: the profile columns, then per class `<name>_planned_kmh` and
-/// `<name>_unbraked_kmh`, then `sight_m`.
+/// One row per station: the profile columns, then per class `<name>_planned_kmh`,
+/// `<name>_unbraked_kmh` and `<name>_arrival` (HH:MM:SS), then `sight_m`.
 std::string check_profile_csv(const CheckResult& result);
 
 /// The terminal summary: course totals, one line per class, the hazards table (fits 100

@@ -54,6 +54,7 @@ struct ClassAtCorner {
   double safe_speed_mps = 0.0;     ///< comfortable lean and grip limit on the path radius
   double braking_distance_m = 0.0;       ///< to the safe speed at comfortable deceleration
   double braking_distance_hard_m = 0.0;  ///< ... at the class's hardest braking
+  bool room_enough = true;         ///< braking_distance_m fits in room_m
   double room_m = 0.0;             ///< straight road before the corner (from the previous one)
   bool too_fast = false;           ///< entry speed above the safe speed
   bool hidden = false;             ///< the corner is out of sight at this class's stopping distance
@@ -88,6 +89,8 @@ struct Hazard {
   bool hidden = false;
   bool after_descent = false;
   WarningSignSiting sign;          ///< from the UK Traffic Signs Manual chapter 4 table
+  double sign_at_m = 0.0;          ///< where along the course the sign stands (at_m - distance, >= 0)
+  double sign_lon_deg = 0.0, sign_lat_deg = 0.0;
   int marshals = 0;
   double lon_deg = 0.0, lat_deg = 0.0;
   std::string reason;  ///< one line of plain English

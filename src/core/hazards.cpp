@@ -82,6 +82,7 @@ std::vector<Hazard> corner_hazards(const HazardInputs& in, const HazardOptions& 
                                                      brake_max_mps2(rider, in.wet), approach_grade,
                                                      rider.reaction_time_s);
       a.too_fast = a.entry_speed_mps > a.safe_speed_mps;
+      a.room_enough = a.braking_distance_m <= a.room_m;
       if (in.corner_visible_m && !needed[c].empty()) {
         a.hidden = corner_hidden_for(d, needed[c], corner.entry_m, (*in.corner_visible_m)[k]);
       }
@@ -319,7 +320,14 @@ std::vector<Hazard> find_hazards(const HazardInputs& in, const HazardOptions& op
   for (auto& h : steep_descents(in, options)) all.push_back(std::move(h));
   std::stable_sort(all.begin(), all.end(), [](const Hazard& a, const Hazard& b) { return a.at_m < b.at_m; });
   int number = 1;
-  for (auto& h : all) h.number = number++;
+  const auto& d = in.profile->distance_m;
+  for (auto& h : all) {
+    h.number = number++;
+    h.sign_at_m = std::max(0.0, h.at_m - h.sign.distance_m);
+    const Station& s = (*in.stations)[index_at(d, h.sign_at_m)];
+    h.sign_lon_deg = s.lon_deg;
+    h.sign_lat_deg = s.lat_deg;
+  }
   return all;
 }
 

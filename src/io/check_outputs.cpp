@@ -70,6 +70,7 @@ nlohmann::json hazard_json(const Hazard& h) {
                        {"braking_distance_m", finite_or_null(a.braking_distance_m, 1)},
                        {"braking_distance_hard_m", finite_or_null(a.braking_distance_hard_m, 1)},
                        {"room_m", r(a.room_m, 1)},
+                       {"room_enough", a.room_enough},
                        {"too_fast", a.too_fast},
                        {"hidden", a.hidden},
                        {"severity", std::string(severity_name(a.severity))}});
@@ -84,6 +85,9 @@ nlohmann::json hazard_json(const Hazard& h) {
   j["sign_distance_m"] = r(h.sign.distance_m, 0);
   j["sign_visibility_m"] = r(h.sign.min_clear_visibility_m, 0);
   j["sign_speed_band"] = std::string(h.sign.speed_band);
+  j["sign_at_m"] = r(h.sign_at_m, 1);
+  j["sign_lon"] = r(h.sign_lon_deg, 7);
+  j["sign_lat"] = r(h.sign_lat_deg, 7);
   j["marshals"] = h.marshals;
   j["lon"] = r(h.lon_deg, 7);
   j["lat"] = r(h.lat_deg, 7);
@@ -196,14 +200,17 @@ std::string check_summary_json(const CheckResult& c) {
 std::string check_profile_csv(const CheckResult& c) {
   const auto& a = c.analysis;
   std::string out = "distance_m,lon,lat,elevation_m,grade_pct";
-  for (const auto& rc : c.classes) out += "," + rc.name + "_planned_kmh," + rc.name + "_unbraked_kmh";
+  for (const auto& rc : c.classes) {
+    out += "," + rc.name + "_planned_kmh," + rc.name + "_unbraked_kmh," + rc.name + "_arrival";
+  }
   out += ",sight_m\n";
   for (std::size_t i = 0; i < a.stations.size(); ++i) {
     const auto& s = a.stations[i];
     out += fmt_fixed(s.distance_m, 1) + "," + fmt_fixed(s.lon_deg, 7) + "," + fmt_fixed(s.lat_deg, 7) +
            "," + fmt_fixed(a.profile.elevation_m[i], 2) + "," + fmt_fixed(a.profile.grade[i] * 100.0, 2);
     for (const auto& sp : c.speeds) {
-      out += "," + fmt_fixed(sp.planned_speed_mps[i] * 3.6, 1) + "," + fmt_fixed(sp.unbraked_speed_mps[i] * 3.6, 1);
+      out += "," + fmt_fixed(sp.planned_speed_mps[i] * 3.6, 1) + "," + fmt_fixed(sp.unbraked_speed_mps[i] * 3.6, 1) +
+             "," + clock_hms(sp.arrival_time_s[i]);
     }
     out += "," + fmt_fixed(c.sight_m[i], 0) + "\n";
   }

@@ -4,6 +4,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include <GeographicLib/Geodesic.hpp>
+
 #include <cmath>
 #include <sstream>
 
@@ -152,6 +154,13 @@ TEST(CheckHazards, BendAtTheFootOfALongDescentIsFlaggedForClassesThatArriveTooFa
   // Sign distance from the UK Traffic Signs Manual chapter 4 table for the fastest approach.
   EXPECT_DOUBLE_EQ(h->sign.distance_m, warning_sign_distance_m(h->peak_speed_mps));
   EXPECT_GE(h->sign.distance_m, 45.0);
+  // The sign stands on the straight approach: its geodesic distance to the corner entry equals
+  // the sign distance (GeographicLib, reference library; within one 5 m station).
+  const Station& entry_station = r.analysis.stations[entry];
+  double sign_to_entry_m = 0;
+  GeographicLib::Geodesic::WGS84().Inverse(h->sign_lat_deg, h->sign_lon_deg, entry_station.lat_deg,
+                                           entry_station.lon_deg, sign_to_entry_m);
+  EXPECT_NEAR(sign_to_entry_m, h->sign.distance_m, 5.0);
   // The planned ride brakes in time: it reaches the entry no faster than the class's safe speed.
   for (std::size_t i = 0; i < r.classes.size(); ++i) {
     const double safe = safe_speed(r.path_radius_m[k], r.classes[i].lean_comfort_dry_rad, 0.8);
