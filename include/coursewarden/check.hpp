@@ -3,6 +3,7 @@
 #pragma once
 
 #include <array>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -35,6 +36,9 @@ struct CheckOptions {
   std::string scenario_name;  ///< weather scenario
   EventOps ops;               ///< waves, rules (checkpoints are placed from `checkpoints`)
   std::vector<CheckpointSpec> checkpoints;
+  /// Told the name of each step as it starts (for a progress line); must be thread-safe when
+  /// checks run in a batch. Empty: silent.
+  std::function<void(const std::string&)> progress;
 };
 
 /// Hazard counts of the same course ridden the other way.

@@ -4,6 +4,7 @@
 #include <memory>
 #include <ostream>
 
+#include "cli/progress.hpp"
 #include "coursewarden/batch.hpp"
 #include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
@@ -13,6 +14,11 @@
 
 namespace coursewarden::cli {
 namespace {
+
+void attach_progress(CheckOptions& options, Progress* p, const std::string& label) {
+  if (!p) return;
+  options.progress = [p, label](const std::string& what) { p->step(label.empty() ? what : label + ": " + what); };
+}
 
 bool is_event_file(const std::string& path) {
   const std::string ext = std::filesystem::path(path).extension().string();
@@ -88,8 +94,9 @@ int run_profile(ProfileArgs& a, std::ostream& out) {
 }
 
 int run_check_command(CheckArgs& parsed, const std::vector<std::string>& subcommand_args, std::ostream& out,
-                      std::ostream& err) {
-  const std::vector<BatchItem> items = batch_items(parsed, subcommand_args);
+                      std::ostream& err, Progress* progress) {
+  std::vector<BatchItem> items = batch_items(parsed, subcommand_args);
+  for (BatchItem& item : items) attach_progress(item.options, progress, items.size() > 1 ? item.label : "");
   const bool json_to_stdout = parsed.profile.json_path == "-";
   if (items.size() == 1) {
     const CheckResult result = run_check(items.front().options);

@@ -10,6 +10,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/options.hpp"
+#include "cli/progress.hpp"
 #include "coursewarden/error.hpp"
 #include "io/riders_output.hpp"
 
@@ -74,12 +75,13 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     err << eo.str();
     return code == 0 ? 0 : 2;
   }
+  Progress progress(err, Progress::for_terminal(err));
   try {
     if (profile->parsed()) return run_profile(profile_args, out);
     if (check->parsed()) {
       const auto at = std::find(rest.begin(), rest.end(), "check");
       const std::vector<std::string> subcommand_args(at == rest.end() ? rest.end() : at + 1, rest.end());
-      return run_check_command(check_args, subcommand_args, out, err);
+      return run_check_command(check_args, subcommand_args, out, err, &progress);
     }
     if (compare->parsed()) return run_compare_command(compare_args, compare_first, compare_other, out);
     if (init->parsed()) return run_init_command(init_course, init_dem, init_output, init_name, init_force, out);

@@ -97,15 +97,20 @@ CheckResult run_check(const CheckOptions& options) {
   r.environment = options.environment;
   r.road = options.road;
   r.hazard_options = options.hazards;
+  auto step = [&options](const std::string& what) {
+    if (options.progress) options.progress(what);
+  };
   // Classes first: a bad riders file should fail before the slow work.
   const std::vector<RiderClass> known =
       options.riders_path.empty() ? builtin_rider_classes() : load_rider_classes(options.riders_path);
   r.classes = select_classes(known, options.class_names,
                              options.riders_path.empty() ? "--classes" : options.riders_path);
+  step("reading " + options.analysis.course_path + " and draping it on the DEM");
   r.analysis = analyse_course(options.analysis);
   const CourseAnalysis& a = r.analysis;
   const bool wet = options.environment.wet;
 
+  step("finding corners");
   r.corners = find_corners(a.stations, options.corners);
   for (const Corner& c : r.corners) r.path_radius_m.push_back(path_radius_m(c, road_state_at(options, c.apex_m)));
 
@@ -134,12 +139,14 @@ CheckResult run_check(const CheckOptions& options) {
         if (a.stations[i].distance_m >= sec.from_m && a.stations[i].distance_m <= sec.to_m) slice.surface[i] = *sec.surface;
     }
   }
+  step("simulating " + std::to_string(r.classes.size()) + " rider classes");
   const PreparedCourse prepared = prepare_course(slice, options.environment);
   for (const RiderClass& rider : r.classes) r.speeds.push_back(simulate_class(rider, prepared, options.simulation));
 
   // Sight: how far ahead the road is seen over its own crests (every station, for the outputs),
   // and for each corner how far back its entry stays in view over the road and the terrain
   // (hillside on the inside of a bend), exactly, per corner.
+  step("checking sight lines");
   const HazardOptions& ho = options.hazards;
   r.sight_m = crest_sight_distance_m(a.profile.distance_m, a.profile.elevation_m, ho.eye_height_m,
                                      ho.object_height_m, ho.max_look_m);
@@ -220,6 +227,7 @@ CheckResult run_check(const CheckOptions& options) {
   }
 
   if (options.check_reverse) {
+    step("checking the course ridden the other way");
     CheckOptions back = options;
     back.check_reverse = false;
     back.analysis.reverse = !options.analysis.reverse;
