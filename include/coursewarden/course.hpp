@@ -49,11 +49,15 @@ struct CleanOptions {
   double spike_min_offset_m = 50.0;  ///< a spike sits at least this far off its neighbours' line
   double spike_return_ratio = 4.0;   ///< ...and both its legs are this many times the direct step
   double spike_spacing_ratio = 8.0;  ///< ...and its legs are this many times the typical spacing
+  /// A jump with legs longer than this is not removed (it may be a drawn out-and-back spur):
+  /// it is kept and flagged in the notes for the organiser to look at.
+  double spike_max_leg_m = 500.0;
 };
 
 struct CleanReport {
   std::size_t duplicates_dropped = 0;
-  std::vector<Spike> spikes;
+  std::vector<Spike> spikes;          ///< removed
+  std::vector<Spike> suspect_spikes;  ///< spike-shaped but too long to be GPS noise: kept, flagged
 };
 
 /// Validates coordinates (finite, in range, not crossing the antimeridian, at least two distinct

@@ -73,7 +73,8 @@ struct OperationsRules {
   /// A walking section (the class cannot hold walking pace on the bicycle) longer than this
   /// makes the class "unsuitable"; any shorter one "demanding" (our assumption).
   double max_walking_m = 300.0;
-  /// This many critical hazards or more for a class make it "unsuitable" (our assumption).
+  /// This many critical hazards or more at which the class, arriving unbraked, could not reach
+  /// its safe speed even with its hardest braking, make it "unsuitable" (our assumption).
   int critical_hazards_unsuitable = 2;
 };
 

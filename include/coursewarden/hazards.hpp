@@ -26,7 +26,8 @@ struct HazardOptions {
   double steep_window_m = 500.0;        ///< steep descents are judged over this length
   double steep_descent_pct = -8.0;      ///< mean gradient at or below this is a steep descent
   double steep_serious_pct = -12.0;     ///< ... and at or below this a serious one
-  double sharp_turn_rad = 60.0 * 3.14159265358979323846 / 180.0;  ///< a junction-type turn
+  double sharp_turn_rad = 60.0 * 3.14159265358979323846 / 180.0;  ///< a junction-type turn turns this much
+  double sharp_turn_max_radius_m = 40.0;  ///< ... on a radius no larger than this (a sweep is not a junction)
   /// Approaches less steep downhill than this (fraction) count as level: a corner seen in time
   /// with room to brake there is only a note.
   double level_approach_grade = -0.02;
@@ -72,7 +73,7 @@ enum class HazardKind {
 /// Key used in files: "corner-too-fast", "hidden-corner", "turn-after-descent",
 /// "fast-section", "steep-descent".
 const char* hazard_kind_key(HazardKind kind);
-/// Plain words for reports: "Corner taken too fast", ...
+/// Plain words for reports: "Corner reached too fast", ...
 const char* hazard_kind_label(HazardKind kind);
 
 struct Hazard {
@@ -110,6 +111,10 @@ struct HazardInputs {
   bool wet = false;
 };
 
+/// A junction-type turn: sharp (sharp_turn_rad or more) and tight (sharp_turn_max_radius_m or
+/// less), where riders must be directed.
+bool is_junction_type_turn(const Corner& corner, const HazardOptions& options);
+
 /// Grip friction used for the corner speed limit in the given condition.
 double grip_friction(const HazardOptions& options, bool wet);
 
@@ -127,7 +132,8 @@ std::vector<Hazard> find_hazards(const HazardInputs& inputs, const HazardOptions
 bool corner_hidden_for(const std::vector<double>& distance_m, const std::vector<double>& needed_m,
                        double entry_m, double visible_m);
 
-/// Stopping sight distance needed at each station for a class's planned speeds (AASHTO form).
+/// Stopping sight distance needed at each station for a class's unbraked speeds (a rider who
+/// has not seen a corner has not slowed for it; AASHTO form).
 std::vector<double> needed_sight_m(const SpeedProfile& speed, const Profile& profile, bool wet,
                                    const HazardOptions& options);
 

@@ -10,6 +10,7 @@
 #include <string_view>
 
 #include "coursewarden/check.hpp"
+#include "coursewarden/operations.hpp"
 
 namespace coursewarden {
 
@@ -23,7 +24,12 @@ struct ReportInfo {
 std::string utc_date_today();
 
 /// The whole report as one HTML document. Pure: the same result and info give the same bytes.
+/// Plans the event's operations (schedule, marshal plan, grading) with plan_operations(), which
+/// throws Error for an inconsistent event.
 std::string report_html(const CheckResult& result, const ReportInfo& info);
+
+/// The same with the operations already planned; `ops` must be plan_operations(result).
+std::string report_html(const CheckResult& result, const Operations& ops, const ReportInfo& info);
 
 /// Text made safe for HTML and XML content and attribute values (& < > " ' escaped; control
 /// characters other than tab, newline and carriage return dropped).

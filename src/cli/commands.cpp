@@ -1,6 +1,7 @@
 #include "cli/commands.hpp"
 
 #include <filesystem>
+#include <map>
 #include <memory>
 #include <ostream>
 
@@ -59,6 +60,12 @@ std::vector<BatchItem> batch_items(const CheckArgs& parsed, const std::vector<st
       const std::string slug = slugify(ev.weather.size() > 1 ? stem + "-" + w.name : stem);
       items.push_back({label, slug, args_for(subcommand_args, &ev, &w, "").check});
     }
+  }
+  // Report folders must not collide (two inputs called course.gpx): number repeated names.
+  std::map<std::string, int> seen;
+  for (BatchItem& item : items) {
+    const int n = ++seen[item.slug];
+    if (n > 1) item.slug += "-" + std::to_string(n);
   }
   return items;
 }

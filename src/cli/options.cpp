@@ -110,6 +110,10 @@ void finish_check_options(CheckArgs& a) {
   finish_profile_options(a.profile);
   CheckOptions& c = a.check;
   c.analysis = a.profile.analysis;
+  if (c.analysis.spacing_m > 10.0) {
+    fail("", "--spacing " + fmt_fixed(c.analysis.spacing_m, 1),
+         "corners and sight lines need stations at most 10 m apart; use 10 m or less for check and compare");
+  }
   check_range(c.environment.temperature_c, "--temperature", -30, 50, "deg C");
   check_range(a.wind_kmh, "--wind", 0, 150, "km/h");
   check_range(a.wind_from_deg, "--wind-from", 0, 360, "deg");

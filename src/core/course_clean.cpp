@@ -104,8 +104,11 @@ CleanReport clean_course(RawCourse& course, const CleanOptions& options) {
     const bool far = offset_m > options.spike_min_offset_m;
     const bool unusual = shorter_leg > options.spike_spacing_ratio * typical_step_m;
     if (returns && far && unusual) {
-      report.spikes.push_back({kept_index[i], b.lon_deg, b.lat_deg, offset_m});
-      continue;
+      if (std::max(ab, bc) <= options.spike_max_leg_m) {
+        report.spikes.push_back({kept_index[i], b.lon_deg, b.lat_deg, offset_m});
+        continue;
+      }
+      report.suspect_spikes.push_back({kept_index[i], b.lon_deg, b.lat_deg, offset_m});
     }
     out.push_back(b);
   }
@@ -118,6 +121,10 @@ CleanReport clean_course(RawCourse& course, const CleanOptions& options) {
   for (const auto& sp : report.spikes) {
     course.notes.push_back("removed a GPS spike at " + vertex_place(sp.input_index) + " (" +
                            fmt_fixed(sp.offset_m, 0) + " m off the line and back)");
+  }
+  for (const auto& sp : report.suspect_spikes) {
+    course.notes.push_back("kept " + vertex_place(sp.input_index) + ", which goes " + fmt_fixed(sp.offset_m, 0) +
+                           " m off the line and back on its own: a drawn out-and-back or a GPS jump; check it");
   }
   course.vertices = std::move(out);
   return report;

@@ -186,7 +186,7 @@ void grade_hazards(ClassGrade& g, const CheckResult& r, const OperationsRules& r
   if (g.serious_hazards > 0) {
     counts += (counts.empty() ? "" : " and ") + std::to_string(g.serious_hazards) + " serious";
   }
-  std::string text = counts + (codes.size() == 1 ? " hazard: " : " hazards: ") + joined(codes);
+  std::string text = counts + (codes.size() == 1 ? " hazard" : " hazards") + " for this class: " + joined(codes);
   if (beyond > 0) {
     text += "; at " + std::to_string(beyond) + " of them even its hardest braking cannot reach a safe speed "
             "in the straight before the corner";

@@ -56,7 +56,7 @@ std::vector<Hazard> corner_hazards(const HazardInputs& in, const HazardOptions& 
     // Braking happens on the approach: the gradient of the 100 m before the entry.
     const double approach_grade = mean_grade(prof, corner.entry_m - 100.0, corner.entry_m);
     const double descent_grade = mean_grade(prof, corner.entry_m - opt.descent_lookback_m, corner.entry_m);
-    const bool sharp = corner.deflection_rad >= opt.sharp_turn_rad;
+    const bool sharp = is_junction_type_turn(corner, opt);
     const bool after_descent = sharp && descent_grade * 100.0 <= opt.descent_before_turn_pct;
 
     Hazard h;
@@ -120,7 +120,8 @@ std::vector<Hazard> corner_hazards(const HazardInputs& in, const HazardOptions& 
       h.reason = "Sharp " + shape + (after_descent ? " at the bottom of a descent" : "") + ": " +
                  std::to_string(too_fast) + " of " + std::to_string(classes.size()) +
                  " classes arrive too fast (up to " + kmh(fastest_entry) + " against a safe " +
-                 kmh(slowest_safe) + "); braking needs up to " + fmt_fixed(worst_braking, 0) + " m " +
+                 kmh(slowest_safe) + ")" +
+                 (std::isfinite(worst_braking) ? "; braking needs up to " + fmt_fixed(worst_braking, 0) + " m " : "; on this gradient comfortable braking cannot slow every class down, ") +
                  (corner.straight_before_m > 1000.0
                       ? std::string("on a long straight approach")
                       : "with " + fmt_fixed(corner.straight_before_m, 0) + " m of straight before it") +
@@ -271,6 +272,10 @@ const char* hazard_kind_label(HazardKind kind) {
   return "Unknown";
 }
 
+bool is_junction_type_turn(const Corner& corner, const HazardOptions& options) {
+  return corner.deflection_rad >= options.sharp_turn_rad && corner.turn_radius_m <= options.sharp_turn_max_radius_m;
+}
+
 double grip_friction(const HazardOptions& options, bool wet) {
   return wet ? options.grip_friction_wet : options.grip_friction_dry;
 }
@@ -300,7 +305,8 @@ std::vector<double> needed_sight_m(const SpeedProfile& speed, const Profile& pro
   std::vector<double> out(profile.distance_m.size());
   const double f = wet ? options.sight_friction_wet : options.sight_friction_dry;
   for (std::size_t i = 0; i < out.size(); ++i) {
-    out[i] = stopping_sight_distance_m(speed.planned_speed_mps[i], profile.grade[i], f,
+    // A rider who has not seen the corner has not slowed for it: the unbraked speed.
+    out[i] = stopping_sight_distance_m(speed.unbraked_speed_mps[i], profile.grade[i], f,
                                        options.sight_reaction_time_s);
     if (!std::isfinite(out[i])) out[i] = options.max_look_m;
   }

@@ -125,7 +125,7 @@ std::vector<PostCandidate> post_candidates(const CheckResult& r, const EventOps&
     const auto& stations = r.analysis.stations;
     for (std::size_t k = 0; k < r.corners.size(); ++k) {
       const Corner& corner = r.corners[k];
-      if (corner.deflection_rad < r.hazard_options.sharp_turn_rad) continue;
+      if (!is_junction_type_turn(corner, r.hazard_options)) continue;
       PostCandidate c;
       c.at_m = corner.entry_m;
       c.count = ops.rules.marshals_per_turn;

@@ -62,6 +62,16 @@ private:
   std::unordered_map<long long, Affine> cells_;
 };
 
+double median_vertex_step_m(const RawCourse& course) {
+  std::vector<double> steps;
+  for (std::size_t i = 1; i < course.vertices.size(); ++i) {
+    steps.push_back(geodesic_length_m({course.vertices[i - 1], course.vertices[i]}));
+  }
+  if (steps.empty()) return 0.0;
+  std::nth_element(steps.begin(), steps.begin() + static_cast<long>(steps.size() / 2), steps.end());
+  return steps[steps.size() / 2];
+}
+
 }  // namespace
 
 std::vector<RiderClass> select_classes(const std::vector<RiderClass>& known,
@@ -83,6 +93,7 @@ std::vector<RiderClass> select_classes(const std::vector<RiderClass>& known,
 
 RoadState road_state_at(const CheckOptions& options, double at_m) {
   RoadState road = options.road;
+  // Sections are given along the course as drawn (like the checkpoints).
   for (const RoadSection& sec : options.sections) {
     if (at_m < sec.from_m || at_m > sec.to_m) continue;
     if (sec.closed) road.closed = *sec.closed;
@@ -108,11 +119,33 @@ CheckResult run_check(const CheckOptions& options) {
   step("reading " + options.analysis.course_path + " and draping it on the DEM");
   r.analysis = analyse_course(options.analysis);
   const CourseAnalysis& a = r.analysis;
+  // Road sections are written along the course as drawn; ridden in reverse they are mirrored.
+  CheckOptions mirrored;
+  const CheckOptions& opts = options.analysis.reverse ? mirrored : options;
+  if (options.analysis.reverse) {
+    mirrored = options;
+    for (RoadSection& sec : mirrored.sections) {
+      const double from = sec.from_m;
+      sec.from_m = std::max(0.0, a.profile.totals.length_m - sec.to_m);
+      sec.to_m = std::max(0.0, a.profile.totals.length_m - from);
+    }
+  }
+  for (const RoadSection& sec : options.sections) {
+    if (sec.from_m > a.profile.totals.length_m + 1.0) {
+      fail(options.event_path, "road section from km " + std::to_string(static_cast<int>(sec.from_m / 1000.0)),
+           "starts beyond the end of the course; check from_km and to_km");
+    }
+  }
   const bool wet = options.environment.wet;
 
   step("finding corners");
-  r.corners = find_corners(a.stations, options.corners);
-  for (const Corner& c : r.corners) r.path_radius_m.push_back(path_radius_m(c, road_state_at(options, c.apex_m)));
+  // A line drawn with sparse vertices turns only at its vertices: a bend drawn every 25 m is a
+  // run of kinks 25 m apart, each below the corner threshold on its own. The fitting window is
+  // therefore at least two of the file's typical vertex steps.
+  CornerOptions corner_options = options.corners;
+  corner_options.min_window_m = std::max(corner_options.min_window_m, 2.0 * median_vertex_step_m(a.course));
+  r.corners = find_corners(a.stations, corner_options);
+  for (const Corner& c : r.corners) r.path_radius_m.push_back(path_radius_m(c, road_state_at(opts, c.apex_m)));
 
   // Speeds: corner paths cap each class by its own comfortable lean (turn radius) and all
   // classes by grip (corner limit).
@@ -130,10 +163,10 @@ CheckResult run_check(const CheckOptions& options) {
       slice.corner_limit_mps[i] = std::min(slice.corner_limit_mps[i], grip);
     }
   }
-  if (options.surface != SurfaceClass::smooth_asphalt ||
-      std::any_of(options.sections.begin(), options.sections.end(), [](const RoadSection& s) { return s.surface.has_value(); })) {
-    slice.surface.assign(n, options.surface);
-    for (const RoadSection& sec : options.sections) {
+  if (opts.surface != SurfaceClass::smooth_asphalt ||
+      std::any_of(opts.sections.begin(), opts.sections.end(), [](const RoadSection& s) { return s.surface.has_value(); })) {
+    slice.surface.assign(n, opts.surface);
+    for (const RoadSection& sec : opts.sections) {
       if (!sec.surface) continue;
       for (std::size_t i = 0; i < n; ++i)
         if (a.stations[i].distance_m >= sec.from_m && a.stations[i].distance_m <= sec.to_m) slice.surface[i] = *sec.surface;

@@ -100,9 +100,10 @@ std::string pad(const std::string& s, std::size_t width, bool right = true) {
   return right ? std::string(width - s.size(), ' ') + s : s + std::string(width - s.size(), ' ');
 }
 
+// A duration as "4h15", rounded to the minute (as the grading and the report round it).
 std::string clock(double seconds) {
-  const long total = std::lround(seconds);
-  const long h = total / 3600, m = (total % 3600) / 60;
+  const long total_min = std::lround(seconds / 60.0);
+  const long h = total_min / 60, m = total_min % 60;
   return std::to_string(h) + "h" + (m < 10 ? "0" : "") + std::to_string(m);
 }
 

@@ -173,28 +173,57 @@ std::string profile_text(const CourseAnalysis& a) {
   return o.str();
 }
 
-void write_file_atomic(const std::string& path, const std::string& content) {
-  namespace fs = std::filesystem;
-  const fs::path target(path);
-  const fs::path dir = target.has_parent_path() ? target.parent_path() : fs::path(".");
+namespace {
+
+std::filesystem::path temporary_beside(const std::filesystem::path& target) {
   std::random_device rd;
-  const fs::path tmp = dir / ("." + target.filename().string() + ".tmp" + std::to_string(rd()));
-  {
-    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    if (!out) fail(path, "", "cannot write here; check the folder exists and is writable");
-    out.write(content.data(), static_cast<std::streamsize>(content.size()));
-    out.flush();
-    if (!out) {
-      std::error_code ec;
-      fs::remove(tmp, ec);
-      fail(path, "", "writing failed (disk full?); nothing was written");
-    }
+  const auto dir = target.has_parent_path() ? target.parent_path() : std::filesystem::path(".");
+  return dir / ("." + target.filename().string() + ".tmp" + std::to_string(rd()));
+}
+
+void write_temporary(const std::filesystem::path& tmp, const std::string& path, const std::string& content) {
+  std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
+  if (!out) fail(path, "", "cannot write here; check the folder exists and is writable");
+  out.write(content.data(), static_cast<std::streamsize>(content.size()));
+  out.flush();
+  if (!out) {
+    out.close();
+    std::error_code ignored;
+    std::filesystem::remove(tmp, ignored);
+    fail(path, "", "writing failed (disk full?); nothing was written");
   }
-  std::error_code ec;
-  fs::rename(tmp, target, ec);
-  if (ec) {
-    fs::remove(tmp, ec);
-    fail(path, "", "cannot replace the file (" + ec.message() + ")");
+}
+
+}  // namespace
+
+void write_file_atomic(const std::string& path, const std::string& content) {
+  write_files_atomic({{path, content}});
+}
+
+void write_files_atomic(const std::vector<std::pair<std::string, std::string>>& files) {
+  namespace fs = std::filesystem;
+  std::vector<fs::path> temporaries;
+  auto discard = [&temporaries] {
+    std::error_code ignored;
+    for (const auto& t : temporaries) fs::remove(t, ignored);
+  };
+  try {
+    for (const auto& [path, content] : files) {
+      temporaries.push_back(temporary_beside(path));
+      write_temporary(temporaries.back(), path, content);
+    }
+  } catch (...) {
+    discard();
+    throw;
+  }
+  for (std::size_t i = 0; i < files.size(); ++i) {
+    std::error_code ec;
+    fs::rename(temporaries[i], files[i].first, ec);
+    if (ec) {
+      const std::string why = ec.message();
+      discard();
+      fail(files[i].first, "", "cannot replace the file (" + why + ")");
+    }
   }
 }
 

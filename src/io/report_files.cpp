@@ -25,17 +25,17 @@ std::vector<std::string> write_check_folder(const CheckResult& result, const std
                                             const ReportInfo& info) {
   namespace fs = std::filesystem;
   // Everything is built before anything is written, in the order of check_folder_files().
+  const Operations ops = plan_operations(result);
   std::vector<std::pair<std::string, std::string>> files = {
       {"summary.json", check_summary_json(result)},
       {"profile.csv", check_profile_csv(result)},
-      {"report.html", report_html(result, info)},
+      {"report.html", report_html(result, ops, info)},
       {"hazards.csv", hazards_csv(result)},
       {"hazards.geojson", hazards_geojson(result)},
       {"hazards.gpx", hazards_gpx(result)},
       {"course.geojson", course_geojson(result)},
       {"climbs.geojson", climbs_geojson(result)},
   };
-  const Operations ops = plan_operations(result);
   files.emplace_back("schedule.csv", schedule_csv(ops.schedule));
   files.emplace_back("marshal-plan.csv", marshal_plan_csv(ops.marshal_plan));
   files.emplace_back("marshal-plan.gpx", marshal_plan_gpx(result, ops.marshal_plan));
@@ -46,10 +46,12 @@ std::vector<std::string> write_check_folder(const CheckResult& result, const std
   fs::create_directories(dir, ec);
   if (!fs::is_directory(dir, ec)) fail(dir, "--out", "cannot create this folder; check the path and permissions");
   std::vector<std::string> written;
-  for (const auto& [name, content] : files) {
-    write_file_atomic((fs::path(dir) / name).string(), content);
+  std::vector<std::pair<std::string, std::string>> targets;
+  for (auto& [name, content] : files) {
+    targets.emplace_back((fs::path(dir) / name).string(), std::move(content));
     written.push_back(name);
   }
+  write_files_atomic(targets);
   return written;
 }
 

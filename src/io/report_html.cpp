@@ -6,11 +6,14 @@
 
 #include <algorithm>
 #include <array>
+#include <cctype>
 #include <chrono>
 #include <cmath>
 #include <ctime>
+#include <limits>
 
 #include "coursewarden/hazards.hpp"
+#include "coursewarden/ops_outputs.hpp"
 #include "coursewarden/outputs.hpp"
 #include "io/report_svg.hpp"
 #include "util/text.hpp"
@@ -234,6 +237,64 @@ table.params{font-size:12px}
 table.params td,table.params th{padding:3px 6px}
 .sources li{margin:2px 0}
 footer{font-size:12px;color:var(--soft);margin-top:20px}
+.verdict{display:inline-block;padding:0 8px;border:1.5px solid var(--ink);border-radius:9px;font-size:12px;
+font-weight:700;line-height:17px;white-space:nowrap}
+.v-suitable{background:#fff;color:var(--ink)}
+.v-demanding{background:#e6e3d3;color:var(--ink);border-style:dashed}
+.v-unsuitable{background:var(--ink);color:#fff}
+.grade-callout{display:flex;gap:16px;align-items:center;border:1px solid var(--rule);border-left:8px solid var(--teal);
+background:#edf3f0;padding:10px 16px;margin:12px 0}
+.grade-level{font-family:"DejaVu Serif","Liberation Serif",Georgia,serif;font-size:34px;font-weight:700;color:var(--teal);
+line-height:1;text-align:center;min-width:52px}
+.grade-level span{display:block;font:11px "DejaVu Sans",Arial,sans-serif;color:var(--soft);margin-top:3px}
+#reverse-direction{margin:10px 0 0}
+.who{font-size:11.5px;color:var(--soft);white-space:nowrap}
+table.schedule td{padding:3px 7px}
+table.schedule td.where{min-width:180px}
+table.schedule th.n{white-space:normal}
+table.schedule .who{white-space:normal}
+#waves td:first-child{white-space:nowrap}
+table.schedule tr.row-finish td{border-top:2px solid var(--ink);font-weight:700}
+table.schedule tr.row-checkpoint td:nth-child(2){background:#edf3f0}
+table.schedule tr.behind td{background:#f6e3d8}
+table.schedule tr.behind td:first-child{box-shadow:inset 5px 0 0 #c0502c}
+.flag{display:inline-block;font-size:11px;font-weight:700;color:#5a200c;border:1px solid #5a200c;background:#fff;
+padding:0 4px;margin-top:2px;white-space:nowrap}
+#grade-scale tr.this-course td{font-weight:700;background:#edf3f0;border-top:2px solid var(--ink);border-bottom:2px solid var(--ink)}
+#grade-scale td.here{white-space:nowrap;color:var(--teal)}
+ul.reasons{margin:0;padding-left:16px}
+ul.reasons li{margin:1px 0}
+.lvl{font-weight:700}
+.sector-page{border-top:3px double var(--ink);margin-top:28px;padding-top:8px}
+.sector-page .kicker{margin-bottom:2px}
+.sector-title{font-size:19px;margin:2px 0 2px}
+.sector-facts{margin:0 0 8px;font-size:14px}
+.sector-maps{display:grid;grid-template-columns:minmax(0,3fr) minmax(0,1fr);gap:12px;align-items:start}
+.sector-maps figure{margin:0}
+.sector-maps figure.key figcaption{font-size:12px;color:var(--soft);margin-top:4px}
+table.posts td.warn{min-width:200px}
+table.posts td.covers{white-space:nowrap;font-size:12.5px}
+.chart .course-other{fill:none;stroke:#aab1b6;stroke-width:1.6;stroke-linejoin:round}
+.chart .post-spans path{fill:none;stroke:#1f5f5b;stroke-opacity:.35;stroke-width:10;stroke-linecap:round}
+.chart .post-dot{fill:#1f5f5b;stroke:#fcfbf6;stroke-width:1.5}
+.chart .post-box{fill:#1f5f5b;stroke:#0d2b29;stroke-width:1}
+.chart .post-code{fill:#fff;font-size:15px;font-weight:700;text-anchor:middle}
+.sector-plan .km-ticks text{font-size:12px}
+.sector-plan .end-label{font-size:13px}
+.chart .post-marker{cursor:pointer}
+.sector-plan .leaders line{stroke:#1f5f5b;stroke-width:1.3}
+.chart .key-frame{fill:none;stroke:#1f5f5b;stroke-width:1.6;stroke-dasharray:4 3}
+.chart .key-start{fill:#1e2830}
+.sector-key .course-line{stroke-width:2.6}
+.chart .td-band{fill:#d7e7e1;stroke:none}
+.chart .td-first{fill:none;stroke:#1f5f5b;stroke-width:1.8}
+.chart .td-last{fill:none;stroke:#1e2830;stroke-width:1.8}
+.chart .td-closing{fill:none;stroke:#3f5568;stroke-width:1.7;stroke-dasharray:6 4}
+.chart .td-behind path{fill:none;stroke:#c0502c;stroke-width:5;stroke-linecap:round}
+.chart .td-checkpoint{stroke:#5a646c;stroke-width:1;stroke-dasharray:2 3}
+.chart .td-end{font-size:11.5px;fill:#1e2830}
+.chart .td-label{font-size:11px;fill:#1e2830;paint-order:stroke;stroke:#fcfbf6;stroke-width:3px}
+.chart .td-cutoff line,.chart .td-cutoff path{stroke:#5e1834;stroke-width:2.5;fill:none}
 @page{size:A4;margin:13mm 12mm}
 @media print{
 html,body{background:#fff}
@@ -245,6 +306,11 @@ section{border:0;padding:0;margin:0;break-before:page;background:#fff}
 .chart,.swatch,.icon{-webkit-print-color-adjust:exact;print-color-adjust:exact}
 tr,figure,.tile,.chart{break-inside:avoid}
 .closeup-title{break-before:page}
+.sector-page{break-before:page;border-top:0;margin-top:0;padding-top:0}
+table.posts a.jump{display:none}
+.grade-callout{break-inside:avoid;-webkit-print-color-adjust:exact;print-color-adjust:exact}
+.verdict,.flag,table.schedule tr.behind td{-webkit-print-color-adjust:exact;print-color-adjust:exact}
+table.posts{font-size:8.5pt}
 thead{display:table-header-group}
 a{color:inherit;text-decoration:none}
 tr:target{outline:0}
@@ -327,7 +393,8 @@ std::string header_html(const CheckResult& c, const ReportInfo& info) {
   o += "</ul>";
   o += "<nav class=\"contents\" aria-label=\"Contents\"><a href=\"#summary\">1 Summary</a><a href=\"#elevation\">2 "
        "Elevation</a><a href=\"#speeds\">3 Speeds</a><a href=\"#plan\">4 Plan</a><a href=\"#hazards\">5 "
-       "Hazards</a><a href=\"#method\">6 Method</a></nav>";
+       "Hazards</a><a href=\"#schedule\">6 Schedule</a><a href=\"#marshals\">7 Marshal briefing</a><a "
+       "href=\"#grading\">8 Grading</a><a href=\"#method\">9 Method</a></nav>";
   o += "</header>";
   return o;
 }
@@ -346,7 +413,103 @@ std::string caution_html() {
   return o;
 }
 
-std::string summary_html(const CheckResult& c) {
+// ---- pieces of the operations sections
+
+// Clock times: rounded to the minute on the side that keeps people safe. Earlier for what must
+// be in place in time (first riders, on post, road closed from), later for what must last long
+// enough (last riders, closing vehicle, off post, road closed until). Hours go on past 24 as in
+// schedule.csv.
+enum class Round { down, nearest, up };
+
+std::string hm(double clock_s, Round mode) {
+  if (!std::isfinite(clock_s)) return "-";
+  const double whole = static_cast<double>(std::llround(clock_s));  // whole seconds, as in the files
+  double minutes = whole / 60.0;
+  minutes = mode == Round::down ? std::floor(minutes) : mode == Round::up ? std::ceil(minutes) : std::round(minutes);
+  const long long total = static_cast<long long>(minutes);
+  const long long a = total < 0 ? -total : total;
+  auto two = [](long long v) { return (v < 10 ? "0" : "") + std::to_string(v); };
+  return (total < 0 ? "-" : "") + two(a / 60) + ":" + two(a % 60);
+}
+
+// A time cell: the minute shown, the exact time of the files in data-hms.
+std::string tcell(double clock_s, Round mode) {
+  if (!std::isfinite(clock_s)) return "-";
+  return "<span class=\"t\" data-hms=\"" + clock_hms(clock_s) + "\">" + hm(clock_s, mode) + "</span>";
+}
+
+std::string verdict_pill(Suitability v) {
+  const std::string name = suitability_name(v);
+  return "<span class=\"verdict v-" + name + "\">" + name + "</span>";
+}
+
+// Text with hazard codes ("H07") turned into links to their rows.
+std::string link_hazard_codes(const std::string& text, const CheckResult& c) {
+  const std::string safe = esc(text);
+  std::string o;
+  std::size_t i = 0;
+  while (i < safe.size()) {
+    const bool start = safe[i] == 'H' && (i == 0 || !std::isalnum(static_cast<unsigned char>(safe[i - 1])));
+    std::size_t j = i + 1;
+    while (start && j < safe.size() && std::isdigit(static_cast<unsigned char>(safe[j]))) ++j;
+    const bool word_end = j >= safe.size() || !std::isalnum(static_cast<unsigned char>(safe[j]));
+    if (start && j > i + 1 && word_end) {
+      const int number = std::stoi(safe.substr(i + 1, j - i - 1));
+      const auto it = std::find_if(c.hazards.begin(), c.hazards.end(), [&](const Hazard& h) { return h.number == number; });
+      if (it != c.hazards.end() && hazard_code(number, c.hazards.size()) == safe.substr(i, j - i)) {
+        o += "<a href=\"#hazard-" + anchor(*it, c.hazards.size()) + "\">" + safe.substr(i, j - i) + "</a>";
+        i = j;
+        continue;
+      }
+    }
+    o += safe[i];
+    ++i;
+  }
+  return o;
+}
+
+// " · post M09": the marshal post that covers a hazard, linked to its row.
+std::string post_link(const MarshalPlan& plan, int hazard_number) {
+  for (const MarshalPost& post : plan.posts) {
+    if (std::find(post.hazards.begin(), post.hazards.end(), hazard_number) != post.hazards.end()) {
+      return " \xc2\xb7 <a href=\"#post-" + report_detail::post_anchor(post.code) + "\">post " + esc(post.code) + "</a>";
+    }
+  }
+  return "";
+}
+
+// The course grade for mixed-ability groups, as a boxed line.
+std::string grade_callout(const Grading& g, const std::string& id, bool pointer) {
+  const CourseGrade& cg = g.course;
+  const std::size_t levels = course_grade_scale().size();
+  std::string o = "<div class=\"grade-callout\" id=\"" + id + "\" data-level=\"" + std::to_string(cg.level) +
+                  "\"><div class=\"grade-level\">" + std::to_string(cg.level) + "<span>of " + std::to_string(levels) +
+                  "</span></div><div><b>Course grade for mixed-ability groups: level " + std::to_string(cg.level) +
+                  ", \xe2\x80\x9c" + esc(cg.name) + "\xe2\x80\x9d.</b> " + esc(cg.meaning) +
+                  "<br><span class=\"caption\">" + std::to_string(cg.suitable) + " suitable, " +
+                  std::to_string(cg.demanding) + " demanding, " + std::to_string(cg.unsuitable) + " unsuitable of " +
+                  std::to_string(cg.suitable + cg.demanding + cg.unsuitable) +
+                  " classes in the field; the grade depends on the field" +
+                  (pointer ? std::string(" (scale and reasons in section 8).") : std::string(".")) + "</span></div></div>";
+  return o;
+}
+
+// When a class finishes: from its wave's start (a range when it starts in several waves),
+// rounded up to the minute like the last riders of the schedule.
+std::string finish_at(const Schedule& sc, std::size_t class_index, double fallback_s) {
+  double first = std::numeric_limits<double>::infinity(), last = -first;
+  for (const ScheduledGroup& g : sc.groups) {
+    if (g.class_index != class_index) continue;
+    first = std::min(first, g.finish_s);
+    last = std::max(last, g.finish_s);
+  }
+  if (!std::isfinite(first)) return hm(fallback_s, Round::up);
+  // Rounded up, like the last riders of the schedule.
+  const std::string a = hm(first, Round::up), b = hm(last, Round::up);
+  return a == b ? a : a + "\xe2\x80\x93" + b;
+}
+
+std::string summary_html(const CheckResult& c, const Operations& ops) {
   const auto& a = c.analysis;
   const auto& t = a.profile.totals;
   std::string o = "<section id=\"summary\"><h2><span class=\"num\">1</span>Summary</h2><div class=\"tiles\">";
@@ -399,7 +562,7 @@ std::string summary_html(const CheckResult& c) {
   }
   // Classes.
   o += "<h3>Predicted rides</h3><table id=\"class-times\"><thead><tr><th>rider class</th><th class=\"n\">time</th>"
-       "<th class=\"n\">average speed</th><th class=\"n\">top speed</th><th class=\"n\">finish at</th><th>likely walking"
+       "<th>grading</th><th class=\"n\">average speed</th><th class=\"n\">top speed</th><th class=\"n\">finish at</th><th>likely walking"
        "</th></tr></thead><tbody>";
   for (std::size_t k = 0; k < c.classes.size() && k < c.speeds.size(); ++k) {
     const SpeedProfile& sp = c.speeds[k];
@@ -408,13 +571,31 @@ std::string summary_html(const CheckResult& c) {
       walking = std::to_string(sp.walking_sections.size()) + (sp.walking_sections.size() == 1 ? " stretch" : " stretches") +
                 ", longest " + fmt_fixed(sp.longest_walking_m, 0) + " m";
     }
-    o += "<tr><td><b>" + esc(c.classes[k].name) + "</b></td><td class=\"n\">" + duration(sp.total_time_s) +
-         "</td><td class=\"n\">" + kmh(sp.moving_avg_speed_mps, 1) + " km/h</td><td class=\"n\">" +
-         kmh(sp.max_speed_mps, 0) + " km/h</td><td class=\"n\">" + clock_time(c.environment.start_time_s + sp.total_time_s) +
+    const Suitability verdict = k < ops.grading.classes.size() ? ops.grading.classes[k].verdict : Suitability::suitable;
+    o += "<tr data-class=\"" + esc(c.classes[k].name) + "\" data-verdict=\"" + suitability_name(verdict) + "\"><td><b>" +
+         esc(c.classes[k].name) + "</b></td><td class=\"n\">" + duration(sp.total_time_s) + "</td><td>" +
+         verdict_pill(verdict) + "</td><td class=\"n\">" + kmh(sp.moving_avg_speed_mps, 1) + " km/h</td><td class=\"n\">" +
+         kmh(sp.max_speed_mps, 0) + " km/h</td><td class=\"n\">" + finish_at(ops.schedule, k, c.environment.start_time_s + sp.total_time_s) +
          "</td><td>" + walking + "</td></tr>";
   }
   o += "</tbody></table><p class=\"caption\">Times are for a rider riding alone without stops; the model's own "
-       "spread on real climbs is several per cent.</p></section>";
+       "spread on real climbs is several per cent. Grading: whether the class can ride the course (section 8).</p>";
+  o += grade_callout(ops.grading, "summary-grade", true);
+  if (c.reverse.checked) {
+    const auto& r = c.reverse.counts;
+    const int forward_severe = static_cast<int>(std::count_if(c.hazards.begin(), c.hazards.end(), [](const Hazard& h) {
+      return h.severity == Severity::serious || h.severity == Severity::critical;
+    }));
+    o += "<p id=\"reverse-direction\" data-markedly-safer=\"" + std::string(c.reverse.markedly_safer ? "true" : "false") +
+         "\"><b>The other way round:</b> ridden in reverse the course would have " + std::to_string(r[3]) +
+         " critical, " + std::to_string(r[2]) + " serious, " + std::to_string(r[1]) + " caution and " +
+         std::to_string(r[0]) + " note hazards (" + std::to_string(r[2] + r[3]) + " serious or critical against " +
+         std::to_string(forward_severe) + " this way), " +
+         (c.reverse.markedly_safer ? "markedly fewer severe hazards: consider running it the other way."
+                                   : "not markedly safer than this direction.") +
+         "</p>";
+  }
+  o += "</section>";
   return o;
 }
 
@@ -545,7 +726,7 @@ std::string classes_cell(const Hazard& h) {
   return o;
 }
 
-std::string hazards_html(const CheckResult& c) {
+std::string hazards_html(const CheckResult& c, const Operations& ops) {
   const std::size_t n = c.hazards.size();
   std::string o = "<section id=\"hazards\"><h2><span class=\"num\">5</span>Hazards in course order</h2>";
   if (n == 0) {
@@ -563,7 +744,8 @@ std::string hazards_html(const CheckResult& c) {
     const std::string id = anchor(h, n);
     o += "<tr id=\"hazard-" + id + "\" class=\"sev-" + std::string(severity_name(h.severity)) + "\" data-hazard=\"" +
          std::to_string(h.number) + "\"><td><b>" + hazard_code(h.number, n) + "</b><br><span class=\"jump\"><a href=\"#plan-" +
-         id + "\">plan</a> \xc2\xb7 <a href=\"#elev-" + id + "\">profile</a></span></td>";
+         id + "\">plan</a> \xc2\xb7 <a href=\"#elev-" + id + "\">profile</a>" + post_link(ops.marshal_plan, h.number) +
+         "</span></td>";
     o += "<td class=\"n\">" + km(h.at_m, 2) + "</td><td>" + esc(hazard_kind_label(h.kind)) + "</td><td>" +
          severity_cell(h.severity) + "</td><td class=\"classes\">" + classes_cell(h) + "</td>";
     o += "<td class=\"n\">" + fmt_fixed(h.sign.distance_m, 0) + " m</td><td class=\"n\">" + std::to_string(h.marshals) +
@@ -574,16 +756,392 @@ std::string hazards_html(const CheckResult& c) {
   return o;
 }
 
+// The classes of a schedule row's group, with the wave when there are several.
+std::string who(const std::string& cls, const std::string& wave, bool waves) {
+  return "<br><span class=\"who\">" + esc(cls) + (waves ? ", " + esc(wave) : std::string()) + "</span>";
+}
+
+// Rows of the schedule shown in the report: the start and every 5th km, checkpoints, hazards
+// and the finish (the full timetable is in schedule.csv).
+bool shown_in_report(const ScheduleRow& row) {
+  if (row.kind != ScheduleKind::km) return true;
+  const double fifth = row.at_m / 5000.0;
+  return std::fabs(fifth - std::round(fifth)) * 5000.0 < 0.5;
+}
+
+std::string schedule_html(const CheckResult& c, const Operations& ops) {
+  const Schedule& sc = ops.schedule;
+  const bool waves = sc.waves.size() > 1;
+  std::string o = "<section id=\"schedule\"><h2><span class=\"num\">6</span>Schedule</h2>";
+  o += "<p class=\"caption\">When the first and the last riders and the closing vehicle pass each place, from each "
+       "class's predicted ride. These are <b>moving times</b>: the model does not stop, so real riders, who stop at "
+       "feeds and junctions, arrive later than the last riders shown. Keep the margins wide enough for that.</p>";
+  // Waves and the closing vehicle.
+  o += "<h3>Start and closing vehicle</h3><table id=\"waves\"><thead><tr><th>wave</th><th class=\"n\">start</th>"
+       "<th>classes</th><th class=\"n\">first at the finish</th><th class=\"n\">last at the finish</th></tr></thead><tbody>";
+  for (std::size_t w = 0; w < sc.waves.size(); ++w) {
+    const ScheduledWave& wave = sc.waves[w];
+    double first = std::numeric_limits<double>::infinity(), last = -first;
+    std::string first_cls, last_cls;
+    for (const ScheduledGroup& g : sc.groups) {
+      if (g.wave != w) continue;
+      if (g.finish_s < first) {
+        first = g.finish_s;
+        first_cls = g.class_name;
+      }
+      if (g.finish_s > last) {
+        last = g.finish_s;
+        last_cls = g.class_name;
+      }
+    }
+    std::string classes;
+    for (std::size_t k = 0; k < wave.classes.size(); ++k) {
+      const std::size_t ci = wave.classes[k];
+      classes += (k ? ", " : "") + (ci < c.classes.size() ? esc(c.classes[ci].name) : std::string("?"));
+    }
+    o += "<tr><td><b>" + esc(wave.name) + "</b></td><td class=\"n\">" + tcell(wave.start_time_s, Round::nearest) +
+         "</td><td>" + classes + "</td><td class=\"n\">" + tcell(first, Round::down) + who(first_cls, "", false) +
+         "</td><td class=\"n\">" + tcell(last, Round::up) + who(last_cls, "", false) + "</td></tr>";
+  }
+  o += "</tbody></table>";
+  const ScheduleRow* finish = nullptr;
+  for (const ScheduleRow& row : sc.rows) {
+    if (row.kind == ScheduleKind::finish) finish = &row;
+  }
+  o += "<p id=\"closing-vehicle\">The <b>closing vehicle</b> leaves with the last wave at " +
+       tcell(sc.last_start_s, Round::nearest) + " and keeps the event's minimum speed, " +
+       fmt_fixed(sc.closing_speed_mps * 3.6, 1) + " km/h" +
+       (finish ? ", reaching the finish at " + tcell(finish->closing_s, Round::up) : std::string()) +
+       ". On the road it follows the last riders; riders more than " + fmt_fixed(sc.closing_grace_s / 60.0, 0) +
+       " min behind it are slower than that minimum and ride outside the road closure.";
+  if (std::isfinite(sc.time_limit_s)) {
+    o += " Time limit: " + duration(sc.time_limit_s) + " from each rider's own wave start.";
+  }
+  o += "</p>";
+  // Time against distance.
+  std::vector<const ScheduleRow*> off_chart;
+  const std::string chart = report_detail::time_distance_svg(c, sc, &off_chart);
+  std::string later;
+  for (const ScheduleRow* row : off_chart) {
+    later += (later.empty() ? "" : ", ") + (row->kind == ScheduleKind::finish ? std::string("finish") : esc(row->label)) +
+             " " + hm(row->cutoff_s, Round::nearest);
+  }
+  o += "<figure class=\"schedule-figure\"><figcaption><b>Who is where, when</b> \xc2\xb7 clock time against "
+       "distance" + (later.empty() ? std::string() : " \xc2\xb7 cut-offs later than the chart shows: " + later) +
+       "</figcaption>" + chart + "</figure>";
+  o += "<ul class=\"legend\"><li><svg class=\"icon\" width=\"30\" height=\"10\" aria-hidden=\"true\"><line x1=\"0\" "
+       "y1=\"5\" x2=\"30\" y2=\"5\" stroke=\"#1f5f5b\" stroke-width=\"2\"/></svg>first riders</li><li><svg "
+       "class=\"icon\" width=\"30\" height=\"10\" aria-hidden=\"true\"><line x1=\"0\" y1=\"5\" x2=\"30\" y2=\"5\" "
+       "stroke=\"#1e2830\" stroke-width=\"2\"/></svg>last riders</li><li><span class=\"swatch\" "
+       "style=\"background:#d7e7e1\"></span>riders on the road</li><li><svg class=\"icon\" width=\"30\" height=\"10\" "
+       "aria-hidden=\"true\"><line x1=\"0\" y1=\"5\" x2=\"30\" y2=\"5\" stroke=\"#3f5568\" stroke-width=\"1.8\" "
+       "stroke-dasharray=\"6 4\"/></svg>closing vehicle</li><li><svg class=\"icon\" width=\"30\" height=\"10\" "
+       "aria-hidden=\"true\"><line x1=\"2\" y1=\"5\" x2=\"28\" y2=\"5\" stroke=\"#c0502c\" stroke-width=\"5\" "
+       "stroke-linecap=\"round\"/></svg>last riders behind the closing vehicle</li>";
+  if (std::any_of(sc.rows.begin(), sc.rows.end(), [](const ScheduleRow& r) { return std::isfinite(r.cutoff_s); })) {
+    o += "<li><svg class=\"icon\" width=\"20\" height=\"10\" aria-hidden=\"true\"><line x1=\"1\" y1=\"5\" x2=\"19\" "
+         "y2=\"5\" stroke=\"#5e1834\" stroke-width=\"2.5\"/></svg>cut-off</li>";
+  }
+  o += "</ul>";
+  // The table.
+  std::size_t behind_shown = 0, behind_all = 0;
+  for (const ScheduleRow& row : sc.rows) {
+    if (!row.latest_behind_closing) continue;
+    ++behind_all;
+    if (shown_in_report(row)) ++behind_shown;
+  }
+  o += "<h3>Timetable</h3><p class=\"caption\">The start, every 5th km, each checkpoint and hazard, and the finish. "
+       "<b>The timetable at every km is in schedule.csv</b>, with the times to the second. Times here are rounded to the "
+       "minute on the safe side: down for the first riders and the road closing, up for the last riders, the closing "
+       "vehicle and the road reopening.";
+  if (behind_all > 0) {
+    o += " <b>Rows marked \xe2\x80\x9c\xe2\x96\xb2 behind closing vehicle\xe2\x80\x9d</b> (" + std::to_string(behind_shown) +
+         " here, " + std::to_string(behind_all) + " in schedule.csv): the last riders pass more than " +
+         fmt_fixed(sc.closing_grace_s / 60.0, 0) + " min after the closing vehicle.";
+  }
+  o += "</p>";
+  const bool any_cutoff = std::any_of(sc.rows.begin(), sc.rows.end(), [](const ScheduleRow& r) { return std::isfinite(r.cutoff_s); });
+  if (!any_cutoff) o += "<p class=\"caption\">No cut-off times and no time limit are set for this event.</p>";
+  o += "<table id=\"schedule-table\" class=\"schedule\"><thead><tr><th class=\"n\">km</th><th>where</th>"
+       "<th class=\"n\">first riders</th><th class=\"n\">last riders</th><th class=\"n\">closing vehicle</th>"
+       "<th class=\"n\">road closed from</th><th class=\"n\">road closed until</th>" +
+       std::string(any_cutoff ? "<th class=\"n\">cut-off</th><th>classes missing the cut-off</th>" : "") +
+       "</tr></thead><tbody>";
+  for (const ScheduleRow& row : sc.rows) {
+    if (!shown_in_report(row)) continue;
+    std::string where;
+    switch (row.kind) {
+      case ScheduleKind::km: where = "km " + fmt_fixed(row.at_m / 1000.0, 0); break;
+      case ScheduleKind::finish: where = "<b>finish</b>"; break;
+      case ScheduleKind::checkpoint:
+        where = "<b>" + esc(row.label) + "</b>" + (row.checkpoint_kind.empty() ? "" : " <span class=\"who\">(" + esc(row.checkpoint_kind) + ")</span>");
+        break;
+      case ScheduleKind::hazard: {
+        const auto it = std::find_if(c.hazards.begin(), c.hazards.end(),
+                                     [&](const Hazard& h) { return h.number == row.hazard_number; });
+        if (it == c.hazards.end()) {
+          where = esc(row.label);
+        } else {
+          where = severity_icon(it->severity, 12) + " <a href=\"#hazard-" + anchor(*it, c.hazards.size()) + "\">" +
+                  hazard_code(it->number, c.hazards.size()) + "</a> " + esc(hazard_kind_label(it->kind));
+        }
+        break;
+      }
+    }
+    std::string missing;
+    if (std::isfinite(row.cutoff_s)) {
+      if (row.classes_missing_cutoff.empty()) {
+        missing = "none";
+      } else {
+        for (std::size_t k = 0; k < row.classes_missing_cutoff.size(); ++k) {
+          missing += (k ? ", " : "") + esc(row.classes_missing_cutoff[k]);
+        }
+        missing = "<b>" + missing + "</b>";
+      }
+    }
+    o += "<tr class=\"row-" + std::string(schedule_kind_key(row.kind)) + (row.latest_behind_closing ? " behind" : "") +
+         "\" data-kind=\"" + schedule_kind_key(row.kind) + "\" data-at-m=\"" + fmt_fixed(row.at_m, 1) + "\"" +
+         (row.latest_behind_closing ? " data-behind=\"true\"" : "") + "><td class=\"n\">" + km(row.at_m, 2) +
+         "</td><td class=\"where\">" +
+         where + "</td><td class=\"n\" data-col=\"first\">" + tcell(row.earliest_s, Round::down) +
+         who(row.earliest_class, row.earliest_wave, waves) + "</td><td class=\"n\" data-col=\"last\">" +
+         tcell(row.latest_s, Round::up) + who(row.latest_class, row.latest_wave, waves) +
+         (row.latest_behind_closing ? "<br><span class=\"flag\">\xe2\x96\xb2 behind closing vehicle</span>" : "") +
+         "</td><td class=\"n\" data-col=\"closing\">" + tcell(row.closing_s, Round::up) +
+         "</td><td class=\"n\" data-col=\"closed-from\">" + tcell(row.closure_open_s, Round::down) +
+         "</td><td class=\"n\" data-col=\"closed-until\">" + tcell(row.closure_close_s, Round::up) +
+         "</td>" +
+         (any_cutoff ? "<td class=\"n\" data-col=\"cutoff\">" + tcell(row.cutoff_s, Round::nearest) +
+                           "</td><td data-col=\"missing\">" + missing + "</td>"
+                     : std::string()) +
+         "</tr>";
+  }
+  o += "</tbody></table></section>";
+  return o;
+}
+
+std::string marshals_html(const CheckResult& c, const Operations& ops, const ReportInfo& info) {
+  const MarshalPlan& mp = ops.marshal_plan;
+  const OperationsRules& rules = c.ops.rules;
+  std::string o = "<section id=\"marshals\"><h2><span class=\"num\">7</span>Marshal briefing</h2>";
+  if (mp.posts.empty()) {
+    o += "<p>No marshal posts: no hazard asks for marshals and no junction-type turn was found. That does not mean "
+         "none are needed: junctions with side roads, crossings and car parks are not in the course line.</p></section>";
+    return o;
+  }
+  o += "<div class=\"tiles\" id=\"marshal-totals\">";
+  auto tile = [&](const std::string& label, const std::string& value, const std::string& sub) {
+    o += "<div class=\"tile\"><div class=\"label\">" + label + "</div><div class=\"value\">" + value +
+         "</div><div class=\"sub\">" + sub + "</div></div>";
+  };
+  tile("Posts", std::to_string(mp.posts.size()), "in " + std::to_string(mp.sectors.size()) +
+       (mp.sectors.size() == 1 ? " sector" : " sectors"));
+  tile("Marshals needed", std::to_string(mp.marshals_needed), "each post staffed for its whole shift");
+  tile("Posts at once", std::to_string(mp.peak_posts), "at most, at the same moment");
+  tile("Marshals at once", std::to_string(mp.peak_marshals), "at most, first reached at " + hm(mp.peak_at_s, Round::down));
+  o += "</div>";
+  o += "<p class=\"caption\">Posts stand at every hazard that asks for marshals and at every junction-type turn "
+       "(turning through " + fmt_fixed(c.hazard_options.sharp_turn_rad * kRadToDeg, 0) + "\xc2\xb0 or more), where "
+       "riders must be directed. Places less than " + fmt_fixed(rules.merge_posts_within_m, 0) +
+       " m apart share a post. <b>On post</b> " + fmt_fixed(rules.marshal_lead_s / 60.0, 0) +
+       " min before the first riders (never asked earlier than " + fmt_fixed(rules.marshal_lead_max_s / 60.0, 0) +
+       " min before them), <b>off post</b> " + fmt_fixed(rules.marshal_release_after_closing_s / 60.0, 0) +
+       " min after the closing vehicle. The peak is what you could staff if marshals move between posts; the total, "
+       "if they do not. Not in the plan: junctions with side roads, crossings, car parks, gravel, anything the course "
+       "line does not show.</p>";
+  o += "<table id=\"sector-table\"><thead><tr><th>sector</th><th class=\"n\">from km</th><th class=\"n\">to km</th>"
+       "<th>posts</th><th class=\"n\">marshals</th><th class=\"n\">first on post</th><th class=\"n\">last off post</th>"
+       "</tr></thead><tbody>";
+  for (std::size_t s = 0; s < mp.sectors.size(); ++s) {
+    const Sector& sec = mp.sectors[s];
+    const std::string first = sec.posts.empty() ? "" : mp.posts[sec.posts.front()].code;
+    const std::string last = sec.posts.empty() ? "" : mp.posts[sec.posts.back()].code;
+    o += "<tr><td><a href=\"#sector-" + std::to_string(s + 1) + "\">" + esc(sec.name) + "</a></td><td class=\"n\">" +
+         km(sec.from_m, 1) + "</td><td class=\"n\">" + km(sec.to_m, 1) + "</td><td>" + std::to_string(sec.posts.size()) +
+         (sec.posts.empty() ? std::string() : ": " + esc(first) + (first == last ? "" : "\xe2\x80\x93" + esc(last))) +
+         "</td><td class=\"n\">" + std::to_string(sec.marshals) + "</td><td class=\"n\">" +
+         tcell(sec.first_on_post_s, Round::down) + "</td><td class=\"n\">" + tcell(sec.last_off_post_s, Round::up) +
+         "</td></tr>";
+  }
+  o += "</tbody></table><p class=\"caption\">Each sector follows on a page of its own, to print and hand out. The "
+       "posts are also in marshal-plan.csv and, as waypoints for a handheld GPS, marshal-plan.gpx.</p>";
+  const std::string course = c.analysis.course.name.empty() ? std::string("Unnamed course") : c.analysis.course.name;
+  for (std::size_t s = 0; s < mp.sectors.size(); ++s) {
+    const Sector& sec = mp.sectors[s];
+    const std::string n = std::to_string(s + 1);
+    o += "<div class=\"sector-page\" id=\"sector-" + n + "\" data-sector=\"" + n + "\">";
+    o += "<p class=\"kicker\">" + (c.event_name.empty() ? std::string() : esc(c.event_name) + " \xc2\xb7 ") + esc(course) +
+         (c.event_date.empty() ? std::string() : " \xc2\xb7 " + esc(c.event_date)) + " \xc2\xb7 marshal briefing, page " + n +
+         " of " + std::to_string(mp.sectors.size()) + "</p>";
+    o += "<h3 class=\"sector-title\">" + esc(sec.name) + " \xc2\xb7 km " + km(sec.from_m, 1) + " to " + km(sec.to_m, 1) +
+         "</h3>";
+    o += "<p class=\"sector-facts\"><b>" + std::to_string(sec.posts.size()) + (sec.posts.size() == 1 ? " post" : " posts") +
+         ", " + std::to_string(sec.marshals) + (sec.marshals == 1 ? " marshal" : " marshals") +
+         "</b> \xc2\xb7 first on post " + tcell(sec.first_on_post_s, Round::down) + " \xc2\xb7 last off post " +
+         tcell(sec.last_off_post_s, Round::up) + "</p>";
+    o += "<div class=\"sector-maps\"><figure>" + report_detail::sector_plan_svg(c, mp, s) +
+         "</figure><figure class=\"key\">" + report_detail::sector_key_svg(c, mp, s) +
+         "<figcaption>Where it lies: the whole course, this sector in bold, the plan's frame dashed, start "
+         "\xe2\x96\xa0.</figcaption></figure></div>";
+    o += "<table class=\"posts\" id=\"posts-" + n + "\"><thead><tr><th>post</th><th class=\"n\">km</th>"
+         "<th class=\"n\">marshals</th><th class=\"n\">on post</th><th class=\"n\">off post</th><th>warn riders of</th>"
+         "<th>covers</th><th>position</th></tr></thead><tbody>";
+    for (std::size_t p : sec.posts) {
+      const MarshalPost& post = mp.posts[p];
+      const std::string a = report_detail::post_anchor(post.code);
+      std::string covers;
+      for (int number : post.hazards) {
+        const auto it = std::find_if(c.hazards.begin(), c.hazards.end(), [&](const Hazard& h) { return h.number == number; });
+        if (it == c.hazards.end()) continue;
+        covers += (covers.empty() ? "" : "<br>") + severity_icon(it->severity, 11) + " <a class=\"covers\" href=\"#hazard-" +
+                  anchor(*it, c.hazards.size()) + "\">" + hazard_code(number, c.hazards.size()) + "</a>";
+      }
+      for (std::size_t k : post.turns) {
+        if (k >= c.corners.size()) continue;
+        covers += (covers.empty() ? "" : "<br>") + std::string("turn, km ") + km(c.corners[k].apex_m, 2);
+      }
+      const std::string span = post.spread_m > 1.0 ? "<br><span class=\"who\">" + km(post.first_m, 2) + "\xe2\x80\x93" +
+                                                         km(post.last_m, 2) + "</span>"
+                                                   : std::string();
+      o += "<tr id=\"post-" + a + "\" data-post=\"" + esc(post.code) + "\"><td><b>" + esc(post.code) +
+           "</b><br><a class=\"jump\" href=\"#map-" + a + "\">plan</a></td><td class=\"n\">" + km(post.at_m, 2) + span +
+           "</td><td class=\"n\">" + std::to_string(post.count) + "</td><td class=\"n\">" +
+           tcell(post.on_post_s, Round::down) + "<br><span class=\"who\">not before " + hm(post.not_before_s, Round::down) +
+           "</span></td><td class=\"n\">" + tcell(post.off_post_s, Round::up) + "</td><td class=\"warn\">" +
+           esc(post.warn) + "</td><td class=\"covers\">" + covers + "</td><td class=\"mono\">" +
+           fmt_fixed(post.lat_deg, 5) + ",<br>" + fmt_fixed(post.lon_deg, 5) + "</td></tr>";
+    }
+    o += "</tbody></table>";
+    o += "<p class=\"caption sector-note\">On post: " + fmt_fixed(rules.marshal_lead_s / 60.0, 0) +
+         " min before the first riders; off post: " + fmt_fixed(rules.marshal_release_after_closing_s / 60.0, 0) +
+         " min after the closing vehicle. Position: latitude, longitude (WGS84). Moving times from a model: confirm "
+         "them with the event's timetable" +
+         (info.check_date.empty() ? std::string() : "; checked on " + esc(info.check_date)) + ".</p>";
+    o += "</div>";
+  }
+  o += "</section>";
+  return o;
+}
+
+// "3/4", "1/2": a share as a small fraction where one fits, else a decimal.
+std::string share_text(double share) {
+  for (int d : {2, 3, 4, 5, 6, 8, 10}) {
+    const double n = share * d;
+    if (std::fabs(n - std::round(n)) < 1e-9) {
+      const long k = std::lround(n);
+      return k == 0 ? "0" : k == d ? "1" : std::to_string(k) + "/" + std::to_string(d);
+    }
+  }
+  return fmt_fixed(share, 2);
+}
+
+std::string grading_html(const CheckResult& c, const Operations& ops) {
+  const Grading& g = ops.grading;
+  std::string o = "<section id=\"grading\"><h2><span class=\"num\">8</span>Grading for clubs</h2>";
+  o += grade_callout(g, "course-grade", false);
+  o += "<h3>The scale</h3><p class=\"caption\">Our own scale for a club riding together: the <b>fit share</b> is "
+       "(suitable classes + half the demanding ones) / classes; here (" + std::to_string(g.course.suitable) + " + " +
+       std::to_string(g.course.demanding) + "/2) / " +
+       std::to_string(g.course.suitable + g.course.demanding + g.course.unsuitable) + " = " +
+       fmt_fixed(g.course.fit_share, 2) + ".</p>";
+  o += "<table id=\"grade-scale\"><thead><tr><th class=\"n\">level</th><th>name</th><th>fit share</th><th>meaning</th>"
+       "<th></th></tr></thead><tbody>";
+  const auto scale = course_grade_scale();
+  for (std::size_t k = 0; k < scale.size(); ++k) {
+    const GradeLevel& level = scale[k];
+    std::string share;
+    if (level.min_fit_share >= 1.0) {
+      share = "1 (every class suitable)";
+    } else if (level.min_fit_share <= 0.0) {
+      share = k > 0 ? "below " + share_text(scale[k - 1].min_fit_share) : std::string("any");
+    } else {
+      share = "at least " + share_text(level.min_fit_share);
+    }
+    const bool here = level.level == g.course.level;
+    o += "<tr" + std::string(here ? " class=\"this-course\" aria-current=\"true\"" : "") + " data-level=\"" +
+         std::to_string(level.level) + "\"><td class=\"n\">" + std::to_string(level.level) + "</td><td>" + esc(level.name) +
+         "</td><td>" + share + "</td><td>" + esc(level.meaning) + "</td><td class=\"here\">" +
+         (here ? "\xe2\x97\x80 this course" : "") + "</td></tr>";
+  }
+  o += "</tbody></table>";
+  o += "<h3>Each class</h3><table id=\"grading-table\"><thead><tr><th>rider class</th><th>verdict</th>"
+       "<th class=\"n\">time</th><th>why</th></tr></thead><tbody>";
+  for (std::size_t k = 0; k < g.classes.size(); ++k) {
+    const ClassGrade& cg = g.classes[k];
+    std::string reasons;
+    if (cg.reasons.empty()) {
+      reasons = "nothing found that the class cannot comfortably handle";
+    } else {
+      reasons = "<ul class=\"reasons\">";
+      for (const GradeReason& why : cg.reasons) {
+        reasons += "<li><span class=\"lvl\">" + std::string(suitability_name(why.level)) + ":</span> " +
+                   link_hazard_codes(why.text, c) + "</li>";
+      }
+      reasons += "</ul>";
+    }
+    o += "<tr data-class=\"" + esc(cg.class_name) + "\" data-verdict=\"" + suitability_name(cg.verdict) + "\"><td><b>" +
+         esc(cg.class_name) + "</b></td><td>" + verdict_pill(cg.verdict) + "</td><td class=\"n\">" +
+         duration(cg.ride_time_s) + "</td><td>" + reasons + "</td></tr>";
+  }
+  o += "</tbody></table><p class=\"caption\"><b>Suitable</b>: nothing found that the class cannot comfortably handle. "
+       "<b>Demanding</b>: it can ride the course with effort or care. <b>Unsuitable</b>: it should not ride it. Each "
+       "finding is graded on its own and the verdict is the worst of them; the thresholds are our own assumptions "
+       "(section 9).</p>";
+  o += "</section>";
+  return o;
+}
+
+std::string operations_method_html(const CheckResult& c) {
+  const OperationsRules& r = c.ops.rules;
+  auto minutes = [](double s) { return fmt_fixed(s / 60.0, 0) + " min"; };
+  std::string o = "<h3>Event operations</h3><ul id=\"operations-rules\">";
+  o += "<li><b>Timing</b>: a group (a class in a start wave) passes a place at its wave's start plus the class's planned "
+       "ride time to it, interpolated between stations. First riders: the earliest group; last riders: the latest.</li>";
+  o += "<li><b>Closing vehicle</b>: leaves with the last wave and keeps " + fmt_fixed(r.closing_speed_mps * 3.6, 1) +
+       " km/h, the event's minimum speed (our assumption unless the event file sets it). Last riders count as behind "
+       "it when they pass more than " + minutes(r.closing_grace_s) + " after it.</li>";
+  o += "<li><b>Road closure</b>: closed " + minutes(r.closure_margin_before_s) + " before the first riders, reopened " +
+       minutes(r.closure_margin_after_s) + " after the closing vehicle (our assumptions).</li>";
+  o += "<li><b>Marshal shifts</b>: on post " + minutes(r.marshal_lead_s) + " before the first riders and never asked "
+       "to be there more than " + minutes(r.marshal_lead_max_s) + " before them; released " +
+       minutes(r.marshal_release_after_closing_s) + " after the closing vehicle. By default this is what the French "
+       "sport code (<i>Code du sport</i>, arts. A331-37 to A331-40) requires of race marshals on the public road: in "
+       "place at least 15 and at most 30 minutes before the race passes, leaving 15 minutes after the closing "
+       "vehicle. Elsewhere the organiser sets the rule.</li>";
+  o += "<li><b>Posts</b>: every hazard that asks for marshals and every junction-type turn (" +
+       std::to_string(r.marshals_per_turn) + (r.marshals_per_turn == 1 ? " marshal" : " marshals") +
+       "); places less than " + fmt_fixed(r.merge_posts_within_m, 0) + " m after a post's first place join it; a "
+       "post spread over more than " + fmt_fixed(r.merged_post_extra_from_m, 0) + " m gets one marshal more; sectors "
+       "of " + km(r.sector_length_m, 0) + " km, at most " + std::to_string(r.max_posts_per_sector) +
+       " posts a page (our assumptions).</li>";
+  o += "<li><b>Grading</b>: demanding above " + fmt_fixed(r.demanding_time_share * 100.0, 0) + " % of the time limit" +
+       (std::isfinite(r.time_limit_s) ? " (" + duration(r.time_limit_s) + ")" : std::string(" (none set)")) +
+       ", or less than " + minutes(r.cutoff_margin_s) + " before a cut-off; unsuitable over the limit, after a "
+       "cut-off, behind the closing vehicle at the finish, walking more than " + fmt_fixed(r.max_walking_m, 0) +
+       " m, or with " + std::to_string(r.critical_hazards_unsuitable) + " or more critical hazards its hardest braking "
+       "cannot rescue (our assumptions).</li>";
+  o += "</ul>";
+  return o;
+}
+
 std::string method_html(const CheckResult& c) {
   const auto& ho = c.hazard_options;
-  std::string o = "<section id=\"method\"><h2><span class=\"num\">6</span>Method and assumptions</h2>";
+  const CategoryScale& cs = c.analysis.category_scale;
+  const CategoryScale defaults;
+  const bool default_scale = cs.cat4_min == defaults.cat4_min && cs.cat3_min == defaults.cat3_min &&
+                             cs.cat2_min == defaults.cat2_min && cs.cat1_min == defaults.cat1_min &&
+                             cs.hc_min == defaults.hc_min;
+  std::string o = "<section id=\"method\"><h2><span class=\"num\">9</span>Method and assumptions</h2>";
   o += "<h3>Profile</h3><p>The course is resampled every " + fmt_fixed(c.analysis.spacing_m, 1) +
        " m along its geodesic length and draped on the terrain model by bilinear interpolation. Raw steps steeper than "
        "a plausible road are repaired as terrain artefacts (bridges, tunnels), then the heights are smoothed with a "
        "Gaussian filter (\xcf\x83 " + fmt_fixed(c.analysis.profile.smoothing_sigma_m, 0) +
        " m). Climbs are found with a dip tolerance; their score is (mean gradient in %)\xc2\xb2 \xc3\x97 length in km, "
-       "and the category follows from configurable lower bounds (by default 4 from 35, 3 from 80, 2 from 180, 1 from "
-       "300, HC from 600). Categories are a consistent yardstick, not an official classification.</p>";
+       "and the category follows from lower bounds of the score. <span id=\"category-scale\">This check used: category 4 "
+       "from " + fmt_fixed(cs.cat4_min, 0) + ", 3 from " + fmt_fixed(cs.cat3_min, 0) + ", 2 from " +
+       fmt_fixed(cs.cat2_min, 0) + ", 1 from " + fmt_fixed(cs.cat1_min, 0) + ", HC from " + fmt_fixed(cs.hc_min, 0) +
+       "</span>" + (default_scale ? " (the defaults)" : " (set for this check; the defaults are 35, 80, 180, 300 and 600)") +
+       ". Categories are a consistent yardstick, not an official classification.</p>";
   o += "<h3>Speeds</h3><p>Each class rides a power model integrated along the road:</p>"
        "<div class=\"formula\">P_pedal = (P_air + P_roll + P_bearing + P_gravity + P_kinetic) / E_c\n"
        "P_air = \xc2\xbd \xcf\x81 (CdA + F_w) V_a|V_a| V_g     P_roll = V_g cos(atan G) Crr m g\n"
@@ -620,6 +1178,7 @@ std::string method_html(const CheckResult& c) {
        std::to_string(ho.severity.extra_marshals_if_hidden) + " upstream with a flag where the riders cannot see it "
        "in time. The severity scale and the marshal counts are our own assumptions; change them to local rules.</li>"
        "</ul>";
+  o += operations_method_html(c);
   // Parameters of every class.
   o += "<h3>Rider class parameters</h3><table class=\"params\" id=\"class-parameters\"><thead><tr><th>parameter</th>";
   for (const auto& rc : c.classes) o += "<th class=\"n\">" + esc(rc.name) + "</th>";
@@ -641,8 +1200,11 @@ std::string method_html(const CheckResult& c) {
        "<li>Pein, <i>High Speed Bicycling</i>: braking deceleration and the effect of the gradient.</li>"
        "<li>UK Department for Transport, <i>Traffic Signs Manual, Chapter 4: Warning Signs</i> (2013), Appendix A: "
        "warning sign distances.</li>"
+       "<li><i>Code du sport</i> (France), articles A331-37 to A331-40: when race marshals are in place and when "
+       "they leave (the default shift rule of the marshal plan).</li>"
        "<li>The project's own documents <i>Method: from a course line to a cleaned profile</i>, <i>Rider classes and "
-       "the speed model</i>, <i>Corners, road state and safe corner speed</i>, <i>Hazard rules and sight lines</i> and <i>What the model does not know</i> give every "
+       "the speed model</i>, <i>Corners, road state and safe corner speed</i>, <i>Hazard rules and sight lines</i>, <i>Event operations: schedule, marshal plan and grading for clubs</i> "
+       "and <i>What the model does not know</i> give every "
        "formula, default and assumption in full.</li></ul>";
   o += "</section>";
   return o;
@@ -651,6 +1213,10 @@ std::string method_html(const CheckResult& c) {
 }  // namespace
 
 std::string report_html(const CheckResult& c, const ReportInfo& info) {
+  return report_html(c, plan_operations(c), info);
+}
+
+std::string report_html(const CheckResult& c, const Operations& ops, const ReportInfo& info) {
   const std::string title = "Course safety check: " + (c.analysis.course.name.empty() ? std::string("unnamed course") : c.analysis.course.name);
   std::string o;
   o.reserve(1 << 20);
@@ -662,14 +1228,18 @@ std::string report_html(const CheckResult& c, const ReportInfo& info) {
   o += "<title>" + esc(title) + "</title>\n<style>" + std::string(kStyle) + "</style>\n</head>\n<body>\n<main>\n";
   o += header_html(c, info) + "\n";
   o += caution_html() + "\n";
-  o += summary_html(c) + "\n";
+  o += summary_html(c, ops) + "\n";
   o += elevation_html(c) + "\n";
   o += speeds_html(c) + "\n";
   o += plan_html(c) + "\n";
-  o += hazards_html(c) + "\n";
+  o += hazards_html(c, ops) + "\n";
+  o += schedule_html(c, ops) + "\n";
+  o += marshals_html(c, ops, info) + "\n";
+  o += grading_html(c, ops) + "\n";
   o += method_html(c) + "\n";
   o += "<footer><p>" + esc(kDisclaimer) + "</p><p>Files beside this report: summary.json, profile.csv, hazards.csv, "
-       "hazards.geojson, hazards.gpx, course.geojson, climbs.geojson.</p></footer>\n";
+       "hazards.geojson, hazards.gpx, course.geojson, climbs.geojson, schedule.csv, marshal-plan.csv, "
+       "marshal-plan.gpx.</p></footer>\n";
   o += "</main>\n</body>\n</html>\n";
   return o;
 }

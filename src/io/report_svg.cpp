@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <array>
+#include <cctype>
 #include <cmath>
 #include <limits>
 
@@ -655,6 +656,28 @@ struct PlanFrame {
   bool closeup;
 };
 
+// The strip below a plan `height` units tall: scale bar on the left, grid-north arrow on the
+// right. `scale` is picture units per metre.
+std::string plan_strip(double width, double height, double scale) {
+  double bar_m = 10.0;
+  for (double m : {10.0, 20.0, 50.0, 100.0, 200.0, 500.0, 1000.0, 2000.0, 5000.0, 10000.0, 20000.0, 50000.0, 100000.0}) {
+    if (m * scale <= 0.25 * width) bar_m = m;
+  }
+  const double w = bar_m * scale, bx = 16.0, by = height + 12.0;
+  std::string o = "<rect class=\"plan-strip\" x=\"0\" y=\"" + n1(height) + "\" width=\"" + n1(width) + "\" height=\"36\"/>";
+  o += "<g class=\"scale-bar\"><rect x=\"" + n1(bx) + "\" y=\"" + n1(by) + "\" width=\"" + n1(w / 2) +
+       "\" height=\"6\" class=\"dark\"/><rect x=\"" + n1(bx + w / 2) + "\" y=\"" + n1(by) + "\" width=\"" + n1(w / 2) +
+       "\" height=\"6\" class=\"light\"/><text x=\"" + n1(bx) + "\" y=\"" + n1(by + 20) + "\">0</text><text x=\"" +
+       n1(bx + w) + "\" y=\"" + n1(by + 20) + "\" text-anchor=\"middle\">" +
+       (bar_m >= 1000.0 ? fmt_fixed(bar_m / 1000.0, 0) + " km" : fmt_fixed(bar_m, 0) + " m") + "</text></g>";
+  const double nx = width - 74.0, ny = height + 6.0;
+  o += "<g class=\"north\"><path class=\"dark\" d=\"M" + n1(nx) + " " + n1(ny) + "L" + n1(nx + 6) + " " + n1(ny + 20) +
+       "L" + n1(nx) + " " + n1(ny + 16) + "Z\"/><path class=\"light\" d=\"M" + n1(nx) + " " + n1(ny) + "L" + n1(nx - 6) +
+       " " + n1(ny + 20) + "L" + n1(nx) + " " + n1(ny + 16) + "Z\"/><text x=\"" + n1(nx + 11) + "\" y=\"" + n1(ny + 15) +
+       "\"><tspan class=\"north-n\">N</tspan> grid</text></g>";
+  return o;
+}
+
 std::string draw_plan(const CheckResult& c, const PlanFrame& f) {
   const auto& st = c.analysis.stations;
   const std::vector<double> dist = station_distances(c);
@@ -812,24 +835,7 @@ std::string draw_plan(const CheckResult& c, const PlanFrame& f) {
   }
   // A strip below the plan for the scale bar (left) and the grid-north arrow (right), so that
   // neither ever covers the course.
-  {
-    double bar_m = 10.0;
-    for (double m : {10.0, 20.0, 50.0, 100.0, 200.0, 500.0, 1000.0, 2000.0, 5000.0, 10000.0, 20000.0, 50000.0, 100000.0}) {
-      if (m * scale <= 0.25 * f.width) bar_m = m;
-    }
-    const double w = bar_m * scale, bx = 16.0, by = height + 12.0;
-    o += "<rect class=\"plan-strip\" x=\"0\" y=\"" + n1(height) + "\" width=\"" + n1(f.width) + "\" height=\"36\"/>";
-    o += "<g class=\"scale-bar\"><rect x=\"" + n1(bx) + "\" y=\"" + n1(by) + "\" width=\"" + n1(w / 2) +
-         "\" height=\"6\" class=\"dark\"/><rect x=\"" + n1(bx + w / 2) + "\" y=\"" + n1(by) + "\" width=\"" + n1(w / 2) +
-         "\" height=\"6\" class=\"light\"/><text x=\"" + n1(bx) + "\" y=\"" + n1(by + 20) + "\">0</text><text x=\"" +
-         n1(bx + w) + "\" y=\"" + n1(by + 20) + "\" text-anchor=\"middle\">" +
-         (bar_m >= 1000.0 ? fmt_fixed(bar_m / 1000.0, 0) + " km" : fmt_fixed(bar_m, 0) + " m") + "</text></g>";
-    const double nx = f.width - 74.0, ny = height + 6.0;
-    o += "<g class=\"north\"><path class=\"dark\" d=\"M" + n1(nx) + " " + n1(ny) + "L" + n1(nx + 6) + " " + n1(ny + 20) +
-         "L" + n1(nx) + " " + n1(ny + 16) + "Z\"/><path class=\"light\" d=\"M" + n1(nx) + " " + n1(ny) + "L" + n1(nx - 6) +
-         " " + n1(ny + 20) + "L" + n1(nx) + " " + n1(ny + 16) + "Z\"/><text x=\"" + n1(nx + 11) + "\" y=\"" + n1(ny + 15) +
-         "\"><tspan class=\"north-n\">N</tspan> grid</text></g>";
-  }
+  o += plan_strip(f.width, height, scale);
   o += "</svg>";
   return o;
 }
@@ -893,6 +899,448 @@ std::string plan_closeup_svg(const CheckResult& c, const Window& w, std::size_t 
   f.ymin -= my;
   f.ymax += my;
   return draw_plan(c, f);
+}
+
+// ---- marshal briefing: sector plans and key maps
+
+namespace {
+
+// Narrower than the other charts: the plan takes three quarters of the page's width, and its
+// labels must stay legible when printed.
+constexpr double kSectorWidth = 720.0;
+constexpr double kSectorHeight = 380.0;
+
+// A course line through the stations [i0, i1) in picture coordinates, thinned to steps of at
+// least 0.8 units and broken where it leaves the view (with `margin` to spare).
+template <class Px, class Py, class InView>
+std::string course_path(const std::vector<Station>& st, std::size_t i0, std::size_t i1, Px px, Py py, InView in_view) {
+  std::string d;
+  double lx = 0, ly = 0;
+  bool pen = false;
+  for (std::size_t i = i0; i < i1 && i < st.size(); ++i) {
+    const double X = px(st[i].x_m), Y = py(st[i].y_m);
+    if (!in_view(X, Y)) {
+      if (pen) d += "L" + n1(X) + " " + n1(Y);
+      pen = false;
+      continue;
+    }
+    if (pen && i + 1 < i1 && std::hypot(X - lx, Y - ly) < 0.8) continue;
+    d += (pen ? "L" : "M") + n1(X) + " " + n1(Y);
+    pen = true;
+    lx = X;
+    ly = Y;
+  }
+  return d;
+}
+
+// First station at or after `from_m` and one past the last station at or before `to_m`.
+std::pair<std::size_t, std::size_t> station_range(const std::vector<double>& dist, double from_m, double to_m) {
+  const auto a = std::lower_bound(dist.begin(), dist.end(), from_m);
+  const auto b = std::upper_bound(dist.begin(), dist.end(), to_m);
+  return {static_cast<std::size_t>(a - dist.begin()), static_cast<std::size_t>(b - dist.begin())};
+}
+
+struct LabelBox {
+  double cx, cy, w, h;
+};
+
+bool boxes_overlap(const LabelBox& a, const LabelBox& b, double gap) {
+  return std::fabs(a.cx - b.cx) < 0.5 * (a.w + b.w) + gap && std::fabs(a.cy - b.cy) < 0.5 * (a.h + b.h) + gap;
+}
+
+bool box_covers(const LabelBox& a, double x, double y, double gap) {
+  return std::fabs(a.cx - x) < 0.5 * a.w + gap && std::fabs(a.cy - y) < 0.5 * a.h + gap;
+}
+
+// Places label boxes near their spots, in the given order: never over another label or another
+// spot, inside the frame, and as little over the course line (`line` points) as the room allows,
+// preferring the nearest place. Returns the boxes, parallel to `spots`.
+std::vector<LabelBox> place_labels(const std::vector<std::pair<double, double>>& spots, const std::vector<double>& widths,
+                                   double h, const std::vector<std::pair<double, double>>& line, double frame_w,
+                                   double frame_h) {
+  std::vector<LabelBox> placed;
+  static const std::array<double, 12> rings{18, 24, 32, 42, 54, 68, 84, 104, 128, 156, 190, 230};
+  for (std::size_t k = 0; k < spots.size(); ++k) {
+    const auto [sx, sy] = spots[k];
+    const double w = widths[k];
+    LabelBox best{sx, sy - 24.0, w, h};
+    double best_score = std::numeric_limits<double>::infinity();
+    for (double radius : rings) {
+      for (int q = 0; q < 16; ++q) {
+        const double a = kPi / 8.0 * q - kPi / 2.0;
+        // Stretch the ring sideways: labels are wider than tall.
+        const LabelBox box{sx + std::cos(a) * (radius + 0.35 * w), sy + std::sin(a) * radius, w, h};
+        if (box.cx - w / 2 < 3 || box.cx + w / 2 > frame_w - 3 || box.cy - h / 2 < 3 || box.cy + h / 2 > frame_h - 3) {
+          continue;
+        }
+        bool hard = false;
+        for (const auto& other : placed) hard = hard || boxes_overlap(box, other, 3.0);
+        for (const auto& [ox, oy] : spots) hard = hard || box_covers(box, ox, oy, 5.0);
+        if (hard) continue;
+        int crossings = 0;
+        for (const auto& [lx, ly] : line) crossings += box_covers(box, lx, ly, 2.0) ? 1 : 0;
+        const double score = 25.0 * crossings + radius;
+        if (score < best_score) {
+          best_score = score;
+          best = box;
+        }
+      }
+    }
+    placed.push_back(best);
+  }
+  return placed;
+}
+
+std::string hhmm(double clock_s) {
+  if (!std::isfinite(clock_s)) return "-";
+  const long long total = std::llround(clock_s / 60.0);
+  const long long a = total < 0 ? -total : total;
+  auto two = [](long long v) { return (v < 10 ? "0" : "") + std::to_string(v); };
+  return (total < 0 ? "-" : "") + two(a / 60) + ":" + two(a % 60);
+}
+
+}  // namespace
+
+std::string post_anchor(const std::string& code) {
+  std::string out = code;
+  for (char& ch : out) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  return out;
+}
+
+PlanBounds sector_bounds(const CheckResult& c, const MarshalPlan& plan, std::size_t s, double aspect) {
+  const Sector& sec = plan.sectors.at(s);
+  const auto& st = c.analysis.stations;
+  double from = std::numeric_limits<double>::infinity(), to = -from;
+  for (std::size_t p : sec.posts) {
+    from = std::min(from, plan.posts.at(p).first_m);
+    to = std::max(to, plan.posts.at(p).last_m);
+  }
+  if (!(to >= from)) {
+    from = sec.from_m;
+    to = sec.to_m;
+  }
+  PlanBounds b;
+  bool first = true;
+  for (const auto& station : st) {
+    if (station.distance_m < from - 250.0 || station.distance_m > to + 250.0) continue;
+    if (first) {
+      b = {station.x_m, station.x_m, station.y_m, station.y_m};
+      first = false;
+    }
+    b.xmin = std::min(b.xmin, station.x_m);
+    b.xmax = std::max(b.xmax, station.x_m);
+    b.ymin = std::min(b.ymin, station.y_m);
+    b.ymax = std::max(b.ymax, station.y_m);
+  }
+  if (first && !st.empty()) b = {st.front().x_m, st.front().x_m, st.front().y_m, st.front().y_m};
+  const double cx = 0.5 * (b.xmin + b.xmax), cy = 0.5 * (b.ymin + b.ymax);
+  // Room for the labels around the stretch: a quarter more each way and 80 m at least.
+  double w = std::max(b.xmax - b.xmin, 600.0) * 1.25 + 160.0;
+  double h = std::max(b.ymax - b.ymin, 250.0) * 1.25 + 160.0;
+  if (w / h < aspect) {
+    w = h * aspect;
+  } else {
+    h = w / aspect;
+  }
+  return {cx - w / 2, cx + w / 2, cy - h / 2, cy + h / 2};
+}
+
+std::string sector_plan_svg(const CheckResult& c, const MarshalPlan& plan, std::size_t s) {
+  const Sector& sec = plan.sectors.at(s);
+  const auto& st = c.analysis.stations;
+  const std::vector<double> dist = station_distances(c);
+  const double length = dist.empty() ? 0.0 : dist.back();
+  const double W = kSectorWidth, H = kSectorHeight;
+  const PlanBounds b = sector_bounds(c, plan, s, W / H);
+  const double scale = W / (b.xmax - b.xmin);
+  auto px = [&](double xm) { return (xm - b.xmin) * scale; };
+  auto py = [&](double ym) { return (b.ymax - ym) * scale; };
+  auto in_view = [&](double X, double Y) { return X >= -60 && X <= W + 60 && Y >= -60 && Y <= H + 60; };
+  auto inside = [&](double X, double Y) { return X >= 0 && X <= W && Y >= 0 && Y <= H; };
+  const std::string number = std::to_string(s + 1);
+  std::string o = "<svg id=\"sector-plan-" + number + "\" class=\"chart plan sector-plan\" viewBox=\"0 0 " + n1(W) + " " +
+                  n1(H + 36.0) + "\" role=\"img\" aria-label=\"" +
+                  escape_markup("Plan of " + sec.name + " in the local projection, up is grid north, with its " +
+                                std::to_string(sec.posts.size()) + " marshal posts") +
+                  "\">";
+  o += "<defs><clipPath id=\"sector-clip-" + number + "\"><rect x=\"0\" y=\"0\" width=\"" + n1(W) + "\" height=\"" + n1(H) +
+       "\"/></clipPath></defs>";
+  o += "<rect class=\"plan-bg\" x=\"0.5\" y=\"0.5\" width=\"" + n1(W - 1) + "\" height=\"" + n1(H - 1) + "\"/>";
+  o += "<g clip-path=\"url(#sector-clip-" + number + ")\">";
+  // The whole course in grey, the sector's own stretch in bold over it.
+  o += "<path class=\"course-other\" d=\"" + course_path(st, 0, st.size(), px, py, in_view) + "\"/>";
+  const auto [a0, a1] = station_range(dist, sec.from_m, sec.to_m);
+  const std::string bold = course_path(st, a0 > 0 ? a0 - 1 : 0, std::min(st.size(), a1 + 1), px, py, in_view);
+  o += "<path class=\"course-halo\" d=\"" + bold + "\"/><path class=\"course-line\" d=\"" + bold + "\"/>";
+  // Posts spread along the course: a band over their stretch.
+  std::string spans = "<g class=\"post-spans\">";
+  for (std::size_t p : sec.posts) {
+    const MarshalPost& post = plan.posts.at(p);
+    if (!(post.spread_m > 1.0)) continue;
+    const auto [i0, i1] = station_range(dist, post.first_m, post.last_m);
+    spans += "<path d=\"" + course_path(st, i0, i1, px, py, in_view) + "\"/>";
+  }
+  o += spans + "</g></g>";
+  // Spots to keep clear and course points the labels should not hide.
+  std::vector<std::pair<double, double>> line;
+  {
+    double lx = -1e9, ly = -1e9;
+    for (const auto& station : st) {
+      const double X = px(station.x_m), Y = py(station.y_m);
+      if (!inside(X, Y) || std::hypot(X - lx, Y - ly) < 4.0) continue;
+      line.emplace_back(X, Y);
+      lx = X;
+      ly = Y;
+    }
+  }
+  // Km ticks and direction arrows along the sector's stretch.
+  if (st.size() >= 2 && length > 0.0) {
+    const double step_km = std::max(0.1, nice_step((b.xmax - b.xmin) / 1000.0 * 1.5, 7.0));
+    std::string ticks = "<g class=\"km-ticks\">", arrows = "<g class=\"direction\">";
+    for (double km = std::ceil(sec.from_m / 1000.0 / step_km - 1e-9) * step_km; km * 1000.0 <= sec.to_m + 1e-6;
+         km += step_km) {
+      if (km * 1000.0 < 1.0 || km * 1000.0 > length - 1.0) continue;
+      const std::size_t i = nearest_station(dist, km * 1000.0);
+      const double X = px(st[i].x_m), Y = py(st[i].y_m), hd = st[i].heading_rad;
+      if (!inside(X, Y)) continue;
+      const double lx = -std::cos(hd), ly = -std::sin(hd);  // left of travel, in SVG coordinates
+      if (!inside(X + 14 * lx, Y + 14 * ly) || X + 14 * lx < 14 || X + 14 * lx > W - 14 || Y + 14 * ly < 12 ||
+          Y + 14 * ly > H - 8) {
+        continue;
+      }
+      ticks += "<circle cx=\"" + n1(X) + "\" cy=\"" + n1(Y) + "\" r=\"2.8\"/><text x=\"" + n1(X + 14 * lx) + "\" y=\"" +
+               n1(Y + 14 * ly + 3.5) + "\" text-anchor=\"middle\">" + km_label(km) + "</text>";
+      for (double q = -8.0; q <= 8.0; q += 8.0) line.emplace_back(X + 14 * lx + q, Y + 14 * ly);
+    }
+    for (double km = (std::ceil(sec.from_m / 1000.0 / step_km - 1e-9) + 0.5) * step_km; km * 1000.0 <= sec.to_m;
+         km += step_km) {
+      if (km * 1000.0 > length - 1.0) continue;
+      const std::size_t i = nearest_station(dist, km * 1000.0);
+      const double X = px(st[i].x_m), Y = py(st[i].y_m), hd = st[i].heading_rad;
+      if (!inside(X, Y)) continue;
+      const double fx = std::sin(hd), fy = -std::cos(hd), lx = -fy, ly = fx;
+      arrows += "<path d=\"M" + n1(X - 6 * fx + 5 * lx) + " " + n1(Y - 6 * fy + 5 * ly) + "L" + n1(X + 4 * fx) + " " +
+                n1(Y + 4 * fy) + "L" + n1(X - 6 * fx - 5 * lx) + " " + n1(Y - 6 * fy - 5 * ly) + "\"/>";
+    }
+    o += arrows + "</g>" + ticks + "</g>";
+  }
+  // Start and finish where they are in view.
+  if (!st.empty()) {
+    std::string ends = "<g class=\"ends\">";
+    const double sx = px(st.front().x_m), sy = py(st.front().y_m), fx = px(st.back().x_m), fy = py(st.back().y_m);
+    // Labels below the mark (above it near the bottom edge), kept clear by the post labels.
+    auto label = [&](double X, double Y, const std::string& text) {
+      const double w = 7.2 * static_cast<double>(text.size());
+      const double tx = std::clamp(X, w / 2 + 4, W - w / 2 - 4), ty = Y > H - 30 ? Y - 12 : Y + 21;
+      ends += "<text class=\"end-label\" x=\"" + n1(tx) + "\" y=\"" + n1(ty) + "\" text-anchor=\"middle\">" + text + "</text>";
+      for (double q = -w / 2; q <= w / 2; q += 4.0) line.emplace_back(tx + q, ty - 4.0);
+    };
+    const bool together = std::hypot(sx - fx, sy - fy) < 30.0;
+    if (inside(sx, sy)) {
+      ends += "<rect class=\"start\" x=\"" + n1(sx - 5) + "\" y=\"" + n1(sy - 5) + "\" width=\"10\" height=\"10\"><title>start</title></rect>";
+      line.emplace_back(sx, sy);
+    }
+    if (inside(fx, fy)) {
+      ends += "<circle class=\"finish\" cx=\"" + n1(fx) + "\" cy=\"" + n1(fy) + "\" r=\"6.5\"><title>finish</title></circle>"
+              "<circle class=\"finish-dot\" cx=\"" + n1(fx) + "\" cy=\"" + n1(fy) + "\" r=\"2.4\"/>";
+      line.emplace_back(fx, fy);
+    }
+    if (together && inside(sx, sy) && inside(fx, fy)) {
+      label(0.5 * (sx + fx), 0.5 * (sy + fy) + 3.0, "start \xc2\xb7 finish");
+    } else {
+      if (inside(sx, sy)) label(sx, sy, "start");
+      if (inside(fx, fy)) label(fx, fy, "finish");
+    }
+    o += ends + "</g>";
+  }
+  // The posts: a dot at each place and a labelled box linking to the post's row.
+  std::vector<std::pair<double, double>> spots;
+  std::vector<double> widths;
+  for (std::size_t p : sec.posts) {
+    const MarshalPost& post = plan.posts.at(p);
+    const std::size_t i = nearest_station(dist, post.at_m);
+    spots.emplace_back(px(st[i].x_m), py(st[i].y_m));
+    widths.push_back(10.5 * static_cast<double>(post.code.size()) + 14.0);
+  }
+  const auto boxes = place_labels(spots, widths, 23.0, line, W, H);
+  std::string leaders = "<g class=\"leaders\">", markers = "<g class=\"post-markers\">";
+  for (std::size_t k = 0; k < sec.posts.size(); ++k) {
+    const MarshalPost& post = plan.posts.at(sec.posts[k]);
+    const std::string anchor = post_anchor(post.code);
+    const auto [sx, sy] = spots[k];
+    const LabelBox& box = boxes[k];
+    leaders += "<line x1=\"" + n1(sx) + "\" y1=\"" + n1(sy) + "\" x2=\"" + n1(box.cx) + "\" y2=\"" + n1(box.cy) + "\"/>";
+    std::string title = post.code + ": " + std::to_string(post.count) + (post.count == 1 ? " marshal" : " marshals") +
+                        " at km " + fmt_fixed(post.at_m / 1000.0, 2) + ", on post " + hhmm(post.on_post_s) +
+                        " to " + hhmm(post.off_post_s) + ". " + post.warn;
+    markers += "<a href=\"#post-" + anchor + "\"><g class=\"post-marker\" id=\"map-" + anchor + "\" data-post=\"" +
+               escape_markup(post.code) + "\"><title>" + escape_markup(title) + "</title><circle class=\"post-dot\" cx=\"" +
+               n1(sx) + "\" cy=\"" + n1(sy) + "\" r=\"4.2\"/><rect class=\"post-box\" x=\"" + n1(box.cx - box.w / 2) +
+               "\" y=\"" + n1(box.cy - box.h / 2) + "\" width=\"" + n1(box.w) + "\" height=\"" + n1(box.h) +
+               "\" rx=\"4\"/><text class=\"post-code\" x=\"" + n1(box.cx) + "\" y=\"" + n1(box.cy + 5.3) + "\">" +
+               escape_markup(post.code) + "</text></g></a>";
+  }
+  o += leaders + "</g>" + markers + "</g>";
+  o += plan_strip(W, H, scale);
+  o += "</svg>";
+  return o;
+}
+
+std::string sector_key_svg(const CheckResult& c, const MarshalPlan& plan, std::size_t s) {
+  const Sector& sec = plan.sectors.at(s);
+  const auto& st = c.analysis.stations;
+  const std::vector<double> dist = station_distances(c);
+  const double W = 240.0, H = 200.0, pad = 12.0;
+  PlanBounds all;
+  if (!st.empty()) all = {st[0].x_m, st[0].x_m, st[0].y_m, st[0].y_m};
+  for (const auto& station : st) {
+    all.xmin = std::min(all.xmin, station.x_m);
+    all.xmax = std::max(all.xmax, station.x_m);
+    all.ymin = std::min(all.ymin, station.y_m);
+    all.ymax = std::max(all.ymax, station.y_m);
+  }
+  const PlanBounds frame = sector_bounds(c, plan, s, kSectorWidth / kSectorHeight);
+  const double xmin = std::min(all.xmin, frame.xmin), xmax = std::max(all.xmax, frame.xmax);
+  const double ymin = std::min(all.ymin, frame.ymin), ymax = std::max(all.ymax, frame.ymax);
+  const double scale = std::min((W - 2 * pad) / std::max(xmax - xmin, 1.0), (H - 2 * pad) / std::max(ymax - ymin, 1.0));
+  const double ox = (W - (xmax - xmin) * scale) / 2.0, oy = (H - (ymax - ymin) * scale) / 2.0;
+  auto px = [&](double xm) { return ox + (xm - xmin) * scale; };
+  auto py = [&](double ym) { return oy + (ymax - ym) * scale; };
+  auto any = [](double, double) { return true; };
+  const std::string number = std::to_string(s + 1);
+  std::string o = "<svg id=\"sector-key-" + number + "\" class=\"chart plan sector-key\" viewBox=\"0 0 " + n1(W) + " " +
+                  n1(H) + "\" role=\"img\" aria-label=\"" +
+                  escape_markup("Where " + sec.name + " lies on the whole course; the frame of its plan is dashed") + "\">";
+  o += "<rect class=\"plan-bg\" x=\"0.5\" y=\"0.5\" width=\"" + n1(W - 1) + "\" height=\"" + n1(H - 1) + "\"/>";
+  o += "<path class=\"course-other\" d=\"" + course_path(st, 0, st.size(), px, py, any) + "\"/>";
+  const auto [a0, a1] = station_range(dist, sec.from_m, sec.to_m);
+  o += "<path class=\"course-line\" d=\"" + course_path(st, a0 > 0 ? a0 - 1 : 0, std::min(st.size(), a1 + 1), px, py, any) +
+       "\"/>";
+  o += "<rect class=\"key-frame\" x=\"" + n1(px(frame.xmin)) + "\" y=\"" + n1(py(frame.ymax)) + "\" width=\"" +
+       n1((frame.xmax - frame.xmin) * scale) + "\" height=\"" + n1((frame.ymax - frame.ymin) * scale) + "\"/>";
+  if (!st.empty()) {
+    o += "<rect class=\"key-start\" x=\"" + n1(px(st.front().x_m) - 3.5) + "\" y=\"" + n1(py(st.front().y_m) - 3.5) +
+         "\" width=\"7\" height=\"7\"><title>start</title></rect>";
+  }
+  o += "</svg>";
+  return o;
+}
+
+// ---- schedule: time against distance
+
+std::string time_distance_svg(const CheckResult& c, const Schedule& schedule, std::vector<const ScheduleRow*>* off_chart) {
+  const double length = schedule.course_length_m;
+  const double left = 64.0, right = 112.0, top = 16.0, plot_h = 300.0, bottom = 38.0;
+  const double plot_w = kWidth - left - right, height = top + plot_h + bottom;
+  const std::size_t n = std::clamp<std::size_t>(static_cast<std::size_t>(length / 100.0), 50, 700);
+  std::vector<double> at(n + 1), first(n + 1), last(n + 1), closing(n + 1);
+  double tmin = std::numeric_limits<double>::infinity(), tmax = -tmin;
+  for (std::size_t k = 0; k <= n; ++k) {
+    at[k] = length * static_cast<double>(k) / static_cast<double>(n);
+    const PassTimes p = pass_times(c, schedule, at[k]);
+    first[k] = p.earliest_s;
+    last[k] = p.latest_s;
+    closing[k] = p.closing_s;
+    tmin = std::min({tmin, p.earliest_s, p.closing_s});
+    tmax = std::max({tmax, p.latest_s, p.closing_s});
+  }
+  std::vector<const ScheduleRow*> cutoffs, checkpoints;
+  for (const ScheduleRow& row : schedule.rows) {
+    if (row.kind == ScheduleKind::checkpoint) checkpoints.push_back(&row);
+    if (std::isfinite(row.cutoff_s)) cutoffs.push_back(&row);
+  }
+  // Cut-offs near the riders widen the axis; later ones are left to the caption.
+  for (const ScheduleRow* row : cutoffs) {
+    if (row->cutoff_s <= tmax + 45.0 * 60.0) tmax = std::max(tmax, row->cutoff_s);
+  }
+  if (!(tmax > tmin)) tmax = tmin + 3600.0;
+  double step = 15.0 * 60.0;
+  for (double m : {15.0, 30.0, 60.0, 120.0, 180.0, 240.0}) {
+    step = m * 60.0;
+    if ((tmax - tmin) / step <= 8.0) break;
+  }
+  const double t0 = std::floor(tmin / step) * step, t1 = std::ceil(tmax / step) * step;
+  const Axis x{0.0, std::max(length, 1.0), left, left + plot_w};
+  const Axis y{t0, t1, top + plot_h, top};
+  std::string o = "<svg id=\"schedule-chart\" class=\"chart schedule-chart\" viewBox=\"0 0 960 " + n1(height) +
+                  "\" role=\"img\" aria-label=\"Clock time against distance: first riders, last riders and the closing "
+                  "vehicle\">";
+  o += "<rect class=\"plot-bg\" x=\"" + n1(left) + "\" y=\"" + n1(top) + "\" width=\"" + n1(plot_w) + "\" height=\"" +
+       n1(plot_h) + "\"/>";
+  o += "<g class=\"grid\">";
+  for (double t = t0; t <= t1 + 1.0; t += step) {
+    o += "<line x1=\"" + n1(left) + "\" y1=\"" + n1(y(t)) + "\" x2=\"" + n1(left + plot_w) + "\" y2=\"" + n1(y(t)) +
+         "\"/><text class=\"tick\" x=\"" + n1(left - 6) + "\" y=\"" + n1(y(t) + 4) + "\" text-anchor=\"end\">" + hhmm(t) +
+         "</text>";
+  }
+  o += "</g>";
+  o += km_grid(x, length, top, top + plot_h, true);
+  o += "<text class=\"axis-label\" x=\"" + n1(left + plot_w) + "\" y=\"" + n1(height - 4) +
+       "\" text-anchor=\"end\">distance from the start, km</text>";
+  auto series = [&](const std::vector<double>& t) {
+    std::vector<std::pair<double, double>> pts;
+    for (std::size_t k = 0; k <= n; ++k) pts.emplace_back(x(at[k]), y(t[k]));
+    return pts;
+  };
+  // Riders on the road: between the first and the last.
+  {
+    auto pts = series(first);
+    const auto back = series(last);
+    pts.insert(pts.end(), back.rbegin(), back.rend());
+    o += "<path class=\"td-band\" d=\"" + path_from(pts) + "Z\"/>";
+  }
+  // Checkpoints: a thin line across with the name at the top.
+  for (const ScheduleRow* row : checkpoints) {
+    const double X = x(row->at_m);
+    o += "<line class=\"td-checkpoint\" x1=\"" + n1(X) + "\" y1=\"" + n1(top) + "\" x2=\"" + n1(X) + "\" y2=\"" +
+         n1(top + plot_h) + "\"/><text class=\"td-label\" x=\"" + n1(X + 4) + "\" y=\"" + n1(top + 12) + "\">" +
+         escape_markup(row->label) + "</text>";
+  }
+  o += "<path class=\"td-first\" d=\"" + path_from(series(first)) + "\"/>";
+  o += "<path class=\"td-last\" d=\"" + path_from(series(last)) + "\"/>";
+  o += "<path class=\"td-closing\" d=\"" + path_from(series(closing)) + "\"/>";
+  // Where the last riders fall behind the closing vehicle by more than the grace.
+  {
+    std::string behind;
+    std::vector<std::pair<double, double>> run;
+    for (std::size_t k = 0; k <= n; ++k) {
+      if (last[k] - closing[k] > schedule.closing_grace_s) {
+        run.emplace_back(x(at[k]), y(last[k]));
+      } else {
+        if (run.size() >= 2) behind += "<path d=\"" + path_from(run) + "\"/>";
+        run.clear();
+      }
+    }
+    if (run.size() >= 2) behind += "<path d=\"" + path_from(run) + "\"/>";
+    if (!behind.empty()) {
+      o += "<g class=\"td-behind\"><title>last riders more than " + fmt_fixed(schedule.closing_grace_s / 60.0, 0) +
+           " min behind the closing vehicle</title>" + behind + "</g>";
+    }
+  }
+  // The lines named at their ends, so that they read without the legend and in greys.
+  {
+    const std::vector<double> ends{y(first[n]), y(last[n]), y(closing[n])};
+    const auto at_y = spread_positions(ends, 14.0, top + 6.0, top + plot_h + 10.0);
+    const std::array<const char*, 3> names{"first riders", "last riders", "closing vehicle"};
+    for (std::size_t k = 0; k < 3; ++k) {
+      o += "<text class=\"td-end\" x=\"" + n1(left + plot_w + 6) + "\" y=\"" + n1(at_y[k] + 4) + "\">" + names[k] + "</text>";
+    }
+  }
+  // Cut-offs: a bar at the checkpoint and the time (those above the chart are named in its
+  // caption instead).
+  for (const ScheduleRow* row : cutoffs) {
+    if (row->cutoff_s > t1) {
+      if (off_chart) off_chart->push_back(row);
+      continue;
+    }
+    const double X = x(row->at_m), Y = y(row->cutoff_s);
+    const bool near_end = X > left + plot_w - 120.0;
+    o += "<g class=\"td-cutoff\"><line x1=\"" + n1(X - 9) + "\" y1=\"" + n1(Y) + "\" x2=\"" + n1(X + 9) + "\" y2=\"" +
+         n1(Y) + "\"/><text class=\"td-label\" x=\"" + n1(near_end ? X - 12 : X + 12) + "\" y=\"" + n1(Y + 4) +
+         "\" text-anchor=\"" + (near_end ? "end" : "start") + "\">cut-off " + hhmm(row->cutoff_s) + "</text></g>";
+  }
+  o += "</svg>";
+  return o;
 }
 
 }  // namespace coursewarden::report_detail

@@ -8,6 +8,8 @@
 #include <vector>
 
 #include "coursewarden/check.hpp"
+#include "coursewarden/marshal_plan.hpp"
+#include "coursewarden/schedule.hpp"
 
 namespace coursewarden::report_detail {
 
@@ -81,5 +83,41 @@ std::string plan_view_svg(const CheckResult& result);
 /// frame), with its own markers (class "closeup-marker", linking to the table rows). `number`
 /// makes the svg's id, "plan-closeup-N".
 std::string plan_closeup_svg(const CheckResult& result, const Window& window, std::size_t number);
+
+/// "m07" from "M07": the lower-case code used in element ids of a marshal post ("post-m07" for
+/// its table row, "map-m07" for its marker on the sector plan).
+std::string post_anchor(const std::string& code);
+
+/// What part of the local plane a sector plan shows (metres, local projection).
+struct PlanBounds {
+  double xmin = 0.0, xmax = 1.0, ymin = 0.0, ymax = 1.0;
+};
+
+/// Frame of the plan of briefing sector `sector`: the stretch from its first post to its last,
+/// with 250 m of course either side, at least 600 m across, widened to the plan's proportions
+/// (`aspect` = width / height) with room around for the labels.
+PlanBounds sector_bounds(const CheckResult& result, const MarshalPlan& plan, std::size_t sector,
+                         double aspect);
+
+/// Plan of one briefing sector in the local projection (stations' x_m / y_m, up = grid north):
+/// the sector's stretch in bold, the rest of the course that passes through the frame in grey,
+/// km ticks and direction arrows, start and finish where in view, and one labelled marker per
+/// post of the sector (class "post-marker", id "map-mNN", linking to the post's table row
+/// "#post-mNN"); a post spread along the course is drawn as a band over its stretch. Scale bar
+/// and grid-north arrow in a strip below. svg id "sector-plan-N" (N from 1).
+std::string sector_plan_svg(const CheckResult& result, const MarshalPlan& plan, std::size_t sector);
+
+/// A small key map of the whole course with the sector's stretch in bold and the frame of its
+/// plan dashed, so that a printed sector page shows where it lies. svg id "sector-key-N".
+std::string sector_key_svg(const CheckResult& result, const MarshalPlan& plan, std::size_t sector);
+
+/// Clock time against distance: the first riders, the last riders (drawn thicker and in
+/// terracotta where they pass more than the grace after the closing vehicle), the band of riders
+/// on the road between them, the closing vehicle (dashed), checkpoints and cut-offs (those more
+/// than 45 min after the last riders and the closing vehicle are left out, as the axis would
+/// squash the lines; the report names them in the caption). svg id "schedule-chart".
+/// `off_chart`, when given, receives the rows whose cut-off is left out.
+std::string time_distance_svg(const CheckResult& result, const Schedule& schedule,
+                              std::vector<const ScheduleRow*>* off_chart = nullptr);
 
 }  // namespace coursewarden::report_detail

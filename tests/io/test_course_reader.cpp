@@ -161,6 +161,18 @@ TEST(CourseClean, DropsDuplicatesAndRemovesASpikeButKeepsASparseHairpin) {
   sparse.vertices = {{3.0, 46.0}, {3.0, 46.004}, {3.0004, 46.0}, {3.0004, 46.004}, {3.0008, 46.0}};
   EXPECT_TRUE(clean_course(sparse).spikes.empty());
   EXPECT_EQ(sparse.vertices.size(), 5u);
+
+  // A dense track with one vertex 1.5 km out and back: too long to be GPS noise (legs over
+  // 500 m), so it is kept and flagged rather than cutting 3 km from the course.
+  RawCourse spur;
+  spur.source_path = "spur.gpx";
+  for (int i = 0; i < 100; ++i) spur.vertices.push_back({3.0 + 0.0001 * i, 46.0});
+  spur.vertices[50].lat_deg += 0.0135;  // ~1.5 km north
+  const auto spur_report = clean_course(spur);
+  EXPECT_TRUE(spur_report.spikes.empty());
+  ASSERT_EQ(spur_report.suspect_spikes.size(), 1u);
+  EXPECT_EQ(spur.vertices.size(), 100u);
+  EXPECT_NE(spur.notes.back().find("check it"), std::string::npos);
 }
 
 TEST(CourseReader, BadInputGetsOneClearLine) {

@@ -3,10 +3,12 @@
 
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <sstream>
 
+#include "cli/options.hpp"
 #include "cli/run.hpp"
 #include "coursewarden/batch.hpp"
 #include "coursewarden/error.hpp"
@@ -198,4 +200,52 @@ TEST(EventFile, WavesAndCheckpointsReachTheScheduleMarshalPlanAndGrading) {
     if (g["name"] == "club") EXPECT_EQ(g["verdict"], "unsuitable");  // misses the cut-off
   }
   EXPECT_GE(j["grading"]["course"]["level"].get<int>(), 1);
+}
+
+TEST(EventFile, RoadSectionsAreMirroredWhenTheCourseIsRidden) {
+  // A closed-road section over the designed switchbacks (features.csv km 41.86-43.65): the
+  // hairpins get the closed-road path radius both ways round.
+  cwtest::TempDir dir;
+  const std::string f = dir.file("sec.toml");
+  cwtest::write_text(f, "[event]\ncourse = \"" + kSample + "/course.gpx\"\ndem = \"" + kSample +
+                            "/dem.tif\"\n[road]\nstate = \"open\"\n[[road.section]]\nfrom_km = 41.5\nto_km = 44.0\n"
+                            "state = \"closed\"\n");
+  CheckOptions fwd;
+  cli::CheckArgs a;
+  cli::apply_event(a, load_event_file(f), nullptr);
+  cli::finish_check_options(a);
+  fwd = a.check;
+  fwd.check_reverse = false;
+  CheckOptions back = fwd;
+  back.analysis.reverse = true;
+  const CheckResult rf = run_check(fwd), rb = run_check(back);
+  auto hairpin_radii = [](const CheckResult& r) {
+    std::vector<double> out;
+    for (std::size_t k = 0; k < r.corners.size(); ++k)
+      if (r.corners[k].hairpin) out.push_back(r.path_radius_m[k]);
+    std::sort(out.begin(), out.end());
+    return out;
+  };
+  const auto f_radii = hairpin_radii(rf), b_radii = hairpin_radii(rb);
+  ASSERT_EQ(f_radii.size(), 6u);
+  ASSERT_EQ(b_radii.size(), 6u);
+  // Closed road: every hairpin gets the same road-width path (no lane side to keep to).
+  for (std::size_t i = 0; i < 6; ++i) EXPECT_NEAR(f_radii[i], b_radii[i], 0.5);
+  EXPECT_NEAR(f_radii.front(), f_radii.back(), 0.5);
+}
+
+TEST(Batch, TwoInputsWithTheSameNameGetTheirOwnFolders) {
+  cwtest::TempDir dir;
+  std::filesystem::create_directories(dir.path() / "a");
+  std::filesystem::create_directories(dir.path() / "b");
+  std::filesystem::copy_file(kSample + "/course.gpx", dir.file("a/course.gpx"));
+  std::filesystem::copy_file(kSample + "/course.gpx", dir.file("b/course.gpx"));
+  std::string out, err;
+  ASSERT_EQ(run_cli({"check", dir.file("a/course.gpx"), dir.file("b/course.gpx"), "--dem", kSample + "/dem.tif",
+                     "--no-reverse-check", "--out", dir.file("out")},
+                    out, err),
+            0)
+      << err;
+  EXPECT_TRUE(std::filesystem::exists(dir.file("out/course/report.html")));
+  EXPECT_TRUE(std::filesystem::exists(dir.file("out/course-2/report.html")));
 }

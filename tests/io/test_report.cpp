@@ -9,6 +9,8 @@
 #include <array>
 #include <cmath>
 #include <filesystem>
+#include <limits>
+#include <map>
 #include <regex>
 #include <set>
 #include <string>
@@ -16,6 +18,8 @@
 #include "coursewarden/check.hpp"
 #include "coursewarden/check_outputs.hpp"
 #include "coursewarden/error.hpp"
+#include "coursewarden/operations.hpp"
+#include "coursewarden/ops_outputs.hpp"
 #include "coursewarden/outputs.hpp"
 #include "coursewarden/report.hpp"
 #include "coursewarden/report_files.hpp"
@@ -94,6 +98,84 @@ double luminance(const std::string& hex) {
   return 0.2126 * channel(0) + 0.7152 * channel(1) + 0.0722 * channel(2);
 }
 
+const Operations& sample_ops() {
+  static const Operations ops = plan_operations(sample());
+  return ops;
+}
+
+// Fields of one CSV line (RFC 4180 quoting).
+std::vector<std::string> csv_fields(const std::string& line) {
+  std::vector<std::string> out(1);
+  bool quoted = false;
+  for (std::size_t i = 0; i < line.size(); ++i) {
+    const char ch = line[i];
+    if (quoted) {
+      if (ch == '"' && i + 1 < line.size() && line[i + 1] == '"') {
+        out.back() += '"';
+        ++i;
+      } else if (ch == '"') {
+        quoted = false;
+      } else {
+        out.back() += ch;
+      }
+    } else if (ch == '"') {
+      quoted = true;
+    } else if (ch == ',') {
+      out.emplace_back();
+    } else {
+      out.back() += ch;
+    }
+  }
+  return out;
+}
+
+// The rows of a CSV text as maps from the header's names.
+std::vector<std::map<std::string, std::string>> csv_rows(const std::string& text) {
+  std::vector<std::map<std::string, std::string>> rows;
+  std::vector<std::string> head;
+  std::size_t at = 0;
+  while (at < text.size()) {
+    std::size_t end = text.find('\n', at);
+    if (end == std::string::npos) end = text.size();
+    const auto fields = csv_fields(text.substr(at, end - at));
+    at = end + 1;
+    if (head.empty()) {
+      head = fields;
+      continue;
+    }
+    std::map<std::string, std::string> row;
+    for (std::size_t k = 0; k < head.size() && k < fields.size(); ++k) row[head[k]] = fields[k];
+    rows.push_back(row);
+  }
+  return rows;
+}
+
+// The element <tag ...> whose opening text contains `marker`, up to its closing tag (no nesting
+// of the same tag inside).
+std::string element_with(const std::string& html, const std::string& tag, const std::string& marker) {
+  const std::size_t hit = html.find(marker);
+  if (hit == std::string::npos) return "";
+  const std::size_t start = html.rfind("<" + tag, hit);
+  const std::size_t end = html.find("</" + tag + ">", hit);
+  if (start == std::string::npos || end == std::string::npos) return "";
+  return html.substr(start, end - start + tag.size() + 3);
+}
+
+// The time cell of a schedule row: {data-hms, shown text}.
+std::pair<std::string, std::string> time_cell(const std::string& row, const std::string& col) {
+  const std::regex re("data-col=\"" + col + "\"><span class=\"t\" data-hms=\"([^\"]*)\">([^<]*)</span>");
+  std::smatch m;
+  if (!std::regex_search(row, m, re)) return {"", ""};
+  return {m[1].str(), m[2].str()};
+}
+
+// HH:MM of a whole number of seconds after midnight, rounded down or up to the minute.
+std::string minute_of(long long seconds, bool up) {
+  const long long minutes = up ? (seconds + 59) / 60 : seconds / 60;
+  auto two = [](long long v) { return (v < 10 ? "0" : "") + std::to_string(v); };
+  return two(minutes / 60) + ":" + two(minutes % 60);
+}
+
 }  // namespace
 
 TEST(Report, LoadsNothingFromOutsideThePage) {
@@ -122,7 +204,8 @@ TEST(Report, LoadsNothingFromOutsideThePage) {
 TEST(Report, HasItsSectionsInOrder) {
   const std::string& html = sample_html();
   std::size_t last = 0;
-  for (const char* id : {"report-header", "caution", "summary", "elevation", "speeds", "plan", "hazards", "method"}) {
+  for (const char* id : {"report-header", "caution", "summary", "elevation", "speeds", "plan", "hazards", "schedule",
+                         "marshals", "grading", "method"}) {
     const std::size_t at = html.find(std::string("id=\"") + id + "\"");
     ASSERT_NE(at, std::string::npos) << id;
     EXPECT_GT(at, last) << id << " is out of order";
@@ -356,4 +439,263 @@ TEST(ReportFolder, RefusesAFileInPlaceOfTheFolder) {
 
 TEST(ReportFolder, TodayIsAnIsoDate) {
   EXPECT_TRUE(std::regex_match(utc_date_today(), std::regex("[0-9]{4}-[01][0-9]-[0-3][0-9]")));
+}
+
+// ---- the event operations sections
+
+TEST(ReportOperations, MarshalBriefingHasOneMarkerPerPostLinkedToItsRowOnItsSectorPage) {
+  const std::string& html = sample_html();
+  const MarshalPlan& plan = sample_ops().marshal_plan;
+  ASSERT_FALSE(plan.posts.empty());
+  ASSERT_FALSE(plan.sectors.empty());
+  EXPECT_EQ(count(html, "class=\"post-marker\""), plan.posts.size());  // nowhere else
+  EXPECT_EQ(count(html, "<div class=\"sector-page\""), plan.sectors.size());
+  for (std::size_t s = 0; s < plan.sectors.size(); ++s) {
+    const std::string n = std::to_string(s + 1);
+    const std::string svg = svg_with_id(html, "sector-plan-" + n);
+    ASSERT_FALSE(svg.empty()) << "sector " << n;
+    EXPECT_EQ(count(svg, "class=\"post-marker\""), plan.sectors[s].posts.size()) << "sector " << n;
+    // The sector's page runs from its opening to the next page (or the end of the section).
+    const std::size_t page = html.find("<div class=\"sector-page\" id=\"sector-" + n + "\"");
+    ASSERT_NE(page, std::string::npos);
+    std::size_t page_end = html.find("<div class=\"sector-page\"", page + 1);
+    if (page_end == std::string::npos) page_end = html.find("</section>", page);
+    for (std::size_t p : plan.sectors[s].posts) {
+      const MarshalPost& post = plan.posts[p];
+      const std::string a = report_detail::post_anchor(post.code);
+      EXPECT_EQ(count(svg, "id=\"map-" + a + "\""), 1u) << post.code;
+      EXPECT_EQ(count(svg, "<a href=\"#post-" + a + "\">"), 1u) << post.code;
+      EXPECT_EQ(count(html, "<tr id=\"post-" + a + "\""), 1u) << post.code;
+      const std::size_t row_at = html.find("<tr id=\"post-" + a + "\"");
+      EXPECT_GT(row_at, page) << post.code << " is not on its sector's page";
+      EXPECT_LT(row_at, page_end) << post.code << " is not on its sector's page";
+      const std::string row = element_with(html, "tr", "<tr id=\"post-" + a + "\"");
+      EXPECT_NE(row.find("href=\"#map-" + a + "\""), std::string::npos) << post.code;
+      for (int number : post.hazards) {
+        std::string code = report_detail::hazard_code(number, sample().hazards.size());
+        code[0] = 'h';
+        EXPECT_NE(row.find("href=\"#hazard-" + code + "\""), std::string::npos) << post.code << " covers " << code;
+      }
+    }
+  }
+  // Printed one page per sector (docs/report.md, Printing).
+  EXPECT_NE(html.find(".sector-page{break-before:page"), std::string::npos);
+}
+
+TEST(ReportOperations, MarshalPostsStandAtTheDesignedTurnsOfTheSample) {
+  // features.csv: every turn of 60 deg or more (the junction-type threshold, docs/operations.md):
+  // the eight town turns, the bend after the crest, the junction, the bends into and out of the
+  // switchbacks and the six hairpins (start km). Town turns 4 and 5 lie 147 m apart, closer than
+  // the 150 m merging distance (docs/operations.md), so one post covers both.
+  const std::string& html = sample_html();
+  std::vector<std::pair<double, double>> posts;  // km from, to of each post row
+  const std::regex row("<tr id=\"post-m[0-9]+\"[^>]*><td>.*?</td><td class=\"n\">([0-9.]+)(<br><span class=\"who\">([0-9.]+)"
+                       "\xe2\x80\x93([0-9.]+)</span>)?</td>");
+  for (auto it = std::sregex_iterator(html.begin(), html.end(), row); it != std::sregex_iterator(); ++it) {
+    const double at = parse_number((*it)[1].str()).value();
+    const double from = (*it)[3].matched ? parse_number((*it)[3].str()).value() : at;
+    const double to = (*it)[4].matched ? parse_number((*it)[4].str()).value() : at;
+    posts.emplace_back(from, to);
+  }
+  ASSERT_EQ(posts.size(), sample_ops().marshal_plan.posts.size());
+  auto covered = [&](double design_km) {
+    return std::count_if(posts.begin(), posts.end(), [&](const auto& p) {
+      return design_km >= p.first - 0.06 && design_km <= p.second + 0.06;
+    });
+  };
+  for (double design_km : {0.212, 0.409, 0.585, 0.802, 0.949, 1.145, 1.342, 1.519, 20.003, 23.482, 41.859, 42.137, 42.377,
+                           42.617, 42.857, 43.097, 43.336, 43.611}) {
+    EXPECT_GE(covered(design_km), 1) << "no marshal post near km " << design_km;
+  }
+  const auto shared = std::count_if(posts.begin(), posts.end(), [](const auto& p) {
+    return p.first <= 0.802 + 0.06 && p.second >= 0.949 - 0.06;
+  });
+  EXPECT_EQ(shared, 1) << "town turns 4 and 5 should share one post";
+}
+
+TEST(ReportOperations, ScheduleFinishRowShowsTheTimesOfScheduleCsv) {
+  const std::string& html = sample_html();
+  const auto rows = csv_rows(schedule_csv(sample_ops().schedule));
+  const auto finish = std::find_if(rows.begin(), rows.end(), [](const auto& r) { return r.at("kind") == "finish"; });
+  ASSERT_NE(finish, rows.end());
+  const std::string row = element_with(html, "tr", "data-kind=\"finish\"");
+  ASSERT_FALSE(row.empty());
+  // Exact times as in the file; shown to the minute, rounded on the safe side (docs/report.md):
+  // down for the first riders and the road closing, up for the last riders, the closing
+  // vehicle and the road reopening (derived: floor or ceiling of the file's seconds / 60).
+  const std::array<std::tuple<const char*, const char*, bool>, 5> cols{{{"first", "earliest", false},
+                                                                        {"last", "latest", true},
+                                                                        {"closing", "closing", true},
+                                                                        {"closed-from", "closure_open", false},
+                                                                        {"closed-until", "closure_close", true}}};
+  for (const auto& [col, field, up] : cols) {
+    const auto [hms, shown] = time_cell(row, col);
+    EXPECT_EQ(hms, finish->at(field)) << col;
+    const long long seconds = std::stoll(finish->at(std::string(field) + "_s"));
+    EXPECT_EQ(shown, minute_of(seconds, up)) << col;
+  }
+  EXPECT_NE(row.find(finish->at("earliest_class")), std::string::npos);
+  EXPECT_NE(row.find(finish->at("latest_class")), std::string::npos);
+  // The full timetable stays in the file, and the page says so.
+  EXPECT_NE(html.find("The timetable at every km is in schedule.csv"), std::string::npos);
+}
+
+TEST(ReportOperations, ScheduleShowsTheStartEveryFifthKmCheckpointsHazardsAndTheFinish) {
+  const std::string& html = sample_html();
+  const std::string table = element_with(html, "table", "id=\"schedule-table\"");
+  std::vector<double> km_rows;
+  const std::regex km_row("data-kind=\"km\" data-at-m=\"([0-9.]+)\"");
+  for (auto it = std::sregex_iterator(table.begin(), table.end(), km_row); it != std::sregex_iterator(); ++it) {
+    km_rows.push_back(parse_number((*it)[1].str()).value());
+  }
+  // The sample is 68.0 km long (features.csv): km 0, 5, ..., 65.
+  ASSERT_EQ(km_rows.size(), 14u);
+  for (std::size_t k = 0; k < km_rows.size(); ++k) EXPECT_NEAR(km_rows[k], 5000.0 * static_cast<double>(k), 0.5);
+  EXPECT_EQ(count(table, "data-kind=\"hazard\""), sample().hazards.size());
+  EXPECT_EQ(count(table, "data-kind=\"finish\""), 1u);
+  // Rows where the last riders pass after the closing vehicle carry a mark in words as well as
+  // the tint: one per such row shown.
+  std::size_t behind = 0;
+  for (const ScheduleRow& r : sample_ops().schedule.rows) {
+    const bool fifth = std::fabs(r.at_m / 5000.0 - std::round(r.at_m / 5000.0)) * 5000.0 < 0.5;
+    if (r.latest_behind_closing && (r.kind != ScheduleKind::km || fifth)) ++behind;
+  }
+  EXPECT_EQ(count(table, "data-behind=\"true\""), behind);
+  EXPECT_EQ(count(table, "behind closing vehicle</span>"), behind);
+  EXPECT_NE(html.find("<svg id=\"schedule-chart\""), std::string::npos);
+}
+
+TEST(ReportOperations, ScheduleShowsWavesCutOffsAndTheClassesThatMissThem) {
+  CheckResult r = sample();
+  StartWave fast{"fast wave", 8.0 * 3600.0, {"racer", "elite"}};
+  StartWave rest{"main wave", 8.0 * 3600.0 + 20.0 * 60.0, {}};
+  for (const auto& rc : r.classes) {
+    if (rc.name != "racer" && rc.name != "elite") rest.classes.push_back(rc.name);
+  }
+  r.ops.waves = {fast, rest};
+  const double cutoff_s = 10.0 * 3600.0 + 30.0 * 60.0;
+  r.ops.checkpoints = {{"Col feed", "cut-off", 40000.0, cutoff_s}};
+  const Operations ops = plan_operations(r);
+  const std::string html = report_html(r, ops, fixed_info());
+  const std::string waves = element_with(html, "table", "id=\"waves\"");
+  EXPECT_EQ(count(waves, "<tr><td><b>"), 2u);
+  EXPECT_NE(waves.find("fast wave"), std::string::npos);
+  EXPECT_NE(waves.find("main wave"), std::string::npos);
+  const std::string row = element_with(html, "tr", "data-kind=\"checkpoint\"");
+  ASSERT_FALSE(row.empty());
+  EXPECT_NE(row.find("Col feed"), std::string::npos);
+  EXPECT_EQ(time_cell(row, "cutoff").first, "10:30:00");
+  // Which classes miss it, worked out here from each class's own speed profile: its wave's start
+  // plus its planned time to km 40 (elapsed_s interpolated between stations) after 10:30.
+  std::vector<double> dist;
+  for (const auto& st : r.analysis.stations) dist.push_back(st.distance_m);
+  std::vector<std::string> late;
+  for (std::size_t k = 0; k < r.classes.size(); ++k) {
+    const bool fast_class = r.classes[k].name == "racer" || r.classes[k].name == "elite";
+    const double start = fast_class ? fast.start_time_s : rest.start_time_s;
+    if (start + report_detail::interpolate(dist, r.speeds[k].elapsed_s, 40000.0) > cutoff_s) late.push_back(r.classes[k].name);
+  }
+  ASSERT_FALSE(late.empty()) << "the slowest class should miss a 10:30 cut-off at km 40";
+  ASSERT_LT(late.size(), r.classes.size());
+  const std::size_t missing_at = row.find("data-col=\"missing\"");
+  ASSERT_NE(missing_at, std::string::npos);
+  const std::string missing = row.substr(missing_at);
+  for (const auto& rc : r.classes) {
+    const bool listed = missing.find(">" + rc.name) != std::string::npos || missing.find(", " + rc.name) != std::string::npos;
+    const bool expected = std::find(late.begin(), late.end(), rc.name) != late.end();
+    EXPECT_EQ(listed, expected) << rc.name;
+  }
+  // Waves are named beside the classes when there are several.
+  EXPECT_NE(html.find("main wave</span>"), std::string::npos);
+}
+
+TEST(ReportOperations, GradingVerdictsAreThoseOfSummaryJson) {
+  const std::string& html = sample_html();
+  const auto summary = nlohmann::json::parse(check_summary_json(sample()));
+  const auto& classes = summary.at("grading").at("classes");
+  ASSERT_EQ(classes.size(), sample().classes.size());
+  const std::string grading = element_with(html, "table", "id=\"grading-table\"");
+  const std::string rides = element_with(html, "table", "id=\"class-times\"");
+  for (const auto& g : classes) {
+    const std::string tr = "<tr data-class=\"" + g.at("name").get<std::string>() + "\" data-verdict=\"" +
+                           g.at("verdict").get<std::string>() + "\">";
+    EXPECT_EQ(count(grading, tr), 1u) << tr;
+    EXPECT_EQ(count(rides, tr), 1u) << tr;
+    // Each reason of the summary is in the class's row (hazard codes become links).
+    const std::string row = element_with(grading, "tr", tr);
+    for (const auto& why : g.at("reasons")) {
+      std::string text = escape_markup(why.get<std::string>());
+      text = std::regex_replace(text, std::regex("(H[0-9]+)"), "<a href=\"#hazard-h$1\">$1</a>");
+      text = std::regex_replace(text, std::regex("#hazard-hH"), "#hazard-h");
+      EXPECT_NE(row.find(text), std::string::npos) << text;
+    }
+  }
+  const int level = summary.at("grading").at("course").at("level").get<int>();
+  EXPECT_NE(html.find("id=\"course-grade\" data-level=\"" + std::to_string(level) + "\""), std::string::npos);
+  // The scale: five levels (docs/operations.md), the course's own marked in words.
+  const std::string scale = element_with(html, "table", "id=\"grade-scale\"");
+  EXPECT_EQ(count(scale, "<tr"), 6u);  // header and five levels
+  const std::string mine = element_with(scale, "tr", "class=\"this-course\"");
+  EXPECT_NE(mine.find("data-level=\"" + std::to_string(level) + "\""), std::string::npos);
+  EXPECT_NE(mine.find("this course"), std::string::npos);
+}
+
+TEST(ReportOperations, SummarySaysInOneSentenceWhetherTheReverseIsMarkedlySafer) {
+  CheckResult r = sample();
+  r.reverse.checked = true;
+  r.reverse.counts = {4, 3, 1, 0};
+  r.reverse.markedly_safer = true;
+  std::string html = report_html(r, fixed_info());
+  std::string line = element_with(html, "p", "id=\"reverse-direction\"");
+  ASSERT_FALSE(line.empty());
+  EXPECT_NE(line.find("0 critical, 1 serious, 3 caution and 4 note hazards"), std::string::npos) << line;
+  EXPECT_NE(line.find("markedly fewer severe hazards"), std::string::npos);
+  r.reverse.markedly_safer = false;
+  html = report_html(r, fixed_info());
+  EXPECT_NE(element_with(html, "p", "id=\"reverse-direction\"").find("not markedly safer"), std::string::npos);
+  r.reverse.checked = false;
+  EXPECT_EQ(report_html(r, fixed_info()).find("id=\"reverse-direction\""), std::string::npos);
+}
+
+TEST(ReportOperations, MethodQuotesTheCategoryScaleUsedAndTheOperationsRules) {
+  // The sample is checked on the default scale: 35/80/180/300/600 (docs/method.md section 7).
+  const std::string& html = sample_html();
+  EXPECT_NE(html.find("category 4 from 35, 3 from 80, 2 from 180, 1 from 300, HC from 600</span> (the defaults)"),
+            std::string::npos);
+  CheckResult r = sample();
+  r.analysis.category_scale = {40.0, 90.0, 200.0, 320.0, 650.0};
+  const std::string other = report_html(r, fixed_info());
+  EXPECT_NE(other.find("category 4 from 40, 3 from 90, 2 from 200, 1 from 320, HC from 650</span> (set for this check"),
+            std::string::npos);
+  // Operations rules: the defaults of docs/operations.md (marshals from the French sport code,
+  // 15 and 30 min before, 15 min after the closing vehicle; closing vehicle 15 km/h; road closed
+  // 30 min before and reopened 10 min after).
+  const std::string rules = element_with(html, "ul", "id=\"operations-rules\"");
+  ASSERT_FALSE(rules.empty());
+  for (const char* words : {"Code du sport", "A331-37 to A331-40", "on post 15 min before", "more than 30 min before",
+                            "released 15 min after the closing vehicle", "keeps 15.0 km/h", "closed 30 min before",
+                            "reopened 10 min after"}) {
+    EXPECT_NE(rules.find(words), std::string::npos) << words;
+  }
+}
+
+TEST(ReportOperations, SaysSoWhenNoMarshalPostIsNeeded) {
+  CheckResult r = sample();
+  r.hazards.clear();
+  r.hazard_options.sharp_turn_rad = 3.2;  // more than any corner can turn: no junction-type turns
+  const std::string html = report_html(r, fixed_info());
+  EXPECT_NE(html.find("No marshal posts"), std::string::npos);
+  EXPECT_EQ(count(html, "class=\"post-marker\""), 0u);
+  EXPECT_NE(html.find("id=\"grading\""), std::string::npos);
+}
+
+TEST(ReportOperations, EscapesWaveAndCheckpointNames) {
+  CheckResult r = sample();
+  r.ops.waves = {{"<w&>", 8.0 * 3600.0, {}}};
+  r.ops.checkpoints = {{"<cp> \"x\"", "feed", 30000.0, std::numeric_limits<double>::quiet_NaN()}};
+  const std::string html = report_html(r, fixed_info());
+  EXPECT_EQ(html.find("<w&>"), std::string::npos);
+  EXPECT_EQ(html.find("<cp>"), std::string::npos);
+  EXPECT_NE(html.find("&lt;w&amp;&gt;"), std::string::npos);
+  EXPECT_NE(html.find("&lt;cp&gt; &quot;x&quot;"), std::string::npos);
 }
