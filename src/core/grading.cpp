@@ -24,7 +24,8 @@ constexpr std::array<GradeLevel, 5> kScale{{
      "Only part of the field rides it comfortably: run separate groups or offer a shorter option.",
      0.5},
     {4, "strong riders",
-     "Only the stronger classes ride it in comfort: the rest of the field needs another course.",
+     "Most of the field finds it hard going and some classes cannot ride it: a course for strong "
+     "riders; the rest of the field needs another course.",
      0.25},
     {5, "few riders",
      "Hardly any class in the field rides it comfortably: not a course for a mixed-ability group.",
