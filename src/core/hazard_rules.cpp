@@ -9,12 +9,12 @@
 #include <string>
 
 #include "coursewarden/error.hpp"
+#include "coursewarden/physics.hpp"
 #include "util/text.hpp"
 
 namespace coursewarden {
 namespace {
 
-constexpr double kStandardGravity_mps2 = 9.80665;  // ISO 80000-3
 constexpr double kMpsPerMph = 0.44704;             // exact: 1609.344 m / 3600 s
 constexpr double kInfinity = std::numeric_limits<double>::infinity();
 
@@ -45,7 +45,7 @@ double braking_deceleration_on_grade_mps2(double decel_mps2, double grade) {
   if (!std::isfinite(grade)) bad_input("braking", "grade must be a finite fraction");
   // Along the road, gravity pulls downhill with g sin(slope angle); going down (grade < 0) it
   // opposes the brakes.
-  return decel_mps2 - kStandardGravity_mps2 * std::sin(std::atan(-grade));
+  return decel_mps2 - kGravity_mps2 * std::sin(std::atan(-grade));
 }
 
 double braking_distance_m(double v_from_mps, double v_to_mps, double decel_mps2, double grade,
@@ -72,7 +72,7 @@ double stopping_sight_distance_m(double speed_mps, double grade, double friction
   const double reaction_m = speed_mps * reaction_time_s;
   if (speed_mps == 0.0) return 0.0;
   if (f_plus_g <= 0.0) return kInfinity;
-  return reaction_m + speed_mps * speed_mps / (2.0 * kStandardGravity_mps2 * f_plus_g);
+  return reaction_m + speed_mps * speed_mps / (2.0 * kGravity_mps2 * f_plus_g);
 }
 
 WarningSignSiting warning_sign_siting(double speed_mps) {

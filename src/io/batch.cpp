@@ -97,7 +97,7 @@ std::string batch_csv(const std::vector<BatchOutcome>& outcomes) {
   for (const Ranked& r : ranked(outcomes)) {
     const BatchOutcome& o = *r.outcome;
     if (!o.result) {
-      out += ",\"" + o.label + "\",,,,,,,,,,," + csv_field(o.error) + "\n";
+      out += "," + csv_field(o.label) + ",,,,,,,,,,," + csv_field(o.error) + "\n";
       continue;
     }
     const CheckResult& c = *o.result;
