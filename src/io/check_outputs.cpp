@@ -21,9 +21,7 @@ namespace {
 using json_out::r;
 constexpr double kRadToDeg = 180.0 / 3.14159265358979323846;
 
-nlohmann::json finite_or_null(double v, int decimals) {
-  return std::isfinite(v) ? nlohmann::json(r(v, decimals)) : nlohmann::json(nullptr);
-}
+nlohmann::json finite_or_null(double v, int decimals) { return json_out::finite_or_null<nlohmann::json>(v, decimals); }
 
 nlohmann::json conditions_json(const CheckResult& c) {
   const auto& e = c.environment;
@@ -62,19 +60,7 @@ nlohmann::json hazard_json(const Hazard& h) {
   j["kind"] = hazard_kind_key(h.kind);
   j["severity"] = std::string(severity_name(h.severity));
   auto classes = nlohmann::json::array();
-  for (const auto& a : h.classes) {
-    classes.push_back({{"name", a.class_name},
-                       {"entry_speed_kmh", r(a.entry_speed_mps * 3.6, 1)},
-                       {"planned_speed_kmh", r(a.planned_speed_mps * 3.6, 1)},
-                       {"safe_speed_kmh", r(a.safe_speed_mps * 3.6, 1)},
-                       {"braking_distance_m", finite_or_null(a.braking_distance_m, 1)},
-                       {"braking_distance_hard_m", finite_or_null(a.braking_distance_hard_m, 1)},
-                       {"room_m", r(a.room_m, 1)},
-                       {"room_enough", a.room_enough},
-                       {"too_fast", a.too_fast},
-                       {"hidden", a.hidden},
-                       {"severity", std::string(severity_name(a.severity))}});
-  }
+  for (const auto& a : h.classes) classes.push_back(json_out::class_at_corner<nlohmann::json>(a));
   for (const auto& name : h.section_classes) classes.push_back({{"name", name}});
   j["classes"] = classes;
   j["peak_speed_kmh"] = r(h.peak_speed_mps * 3.6, 1);

@@ -21,9 +21,7 @@ using ordered_json = nlohmann::ordered_json;
 
 using json_out::r;
 
-ordered_json finite_or_null(double v, int decimals) {
-  return std::isfinite(v) ? ordered_json(r(v, decimals)) : ordered_json(nullptr);
-}
+ordered_json finite_or_null(double v, int decimals) { return json_out::finite_or_null<ordered_json>(v, decimals); }
 
 // RFC 7946 position: [longitude, latitude], 7 decimals (about 1 cm).
 ordered_json position(double lon_deg, double lat_deg) { return {r(lon_deg, 7), r(lat_deg, 7)}; }
@@ -204,18 +202,7 @@ std::string hazards_geojson(const CheckResult& c) {
     props["severity_rank"] = static_cast<int>(h.severity);
     props["classes"] = affected_names(h);
     auto detail = ordered_json::array();
-    for (const auto& a : h.classes) {
-      detail.push_back({{"name", a.class_name},
-                        {"entry_speed_kmh", r(a.entry_speed_mps * 3.6, 1)},
-                        {"planned_speed_kmh", r(a.planned_speed_mps * 3.6, 1)},
-                        {"safe_speed_kmh", r(a.safe_speed_mps * 3.6, 1)},
-                        {"braking_distance_m", finite_or_null(a.braking_distance_m, 1)},
-                        {"braking_distance_hard_m", finite_or_null(a.braking_distance_hard_m, 1)},
-                        {"room_m", r(a.room_m, 1)},
-                        {"too_fast", a.too_fast},
-                        {"hidden", a.hidden},
-                        {"severity", std::string(severity_name(a.severity))}});
-    }
+    for (const auto& a : h.classes) detail.push_back(json_out::class_at_corner<ordered_json>(a));
     props["class_speeds"] = detail;
     props["peak_speed_kmh"] = r(h.peak_speed_mps * 3.6, 1);
     props["corner"] = h.corner ? ordered_json(*h.corner) : ordered_json(nullptr);
