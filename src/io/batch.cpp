@@ -74,12 +74,6 @@ std::vector<Ranked> ranked(const std::vector<BatchOutcome>& outcomes) {
   return out;
 }
 
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\n") == std::string::npos) return s;
-  std::string q = "\"";
-  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-  return q + "\"";
-}
 
 double slowest_time_s(const CheckResult& r) {
   double t = 0.0;

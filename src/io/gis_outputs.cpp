@@ -114,15 +114,6 @@ std::vector<std::string> affected_names(const Hazard& h) {
   return names;
 }
 
-std::string csv_field(const std::string& text) {
-  if (text.find_first_of(",\"\n\r") == std::string::npos) return text;
-  std::string out = "\"";
-  for (char c : text) {
-    if (c == '"') out += '"';
-    out += c;
-  }
-  return out + "\"";
-}
 
 std::string join(const std::vector<std::string>& items, const char* sep) {
   std::string out;

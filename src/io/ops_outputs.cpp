@@ -17,15 +17,6 @@ constexpr std::size_t kTextWidth = 100;
 
 std::string two(long v) { return (v < 10 ? "0" : "") + std::to_string(v); }
 
-std::string csv_field(const std::string& text) {
-  if (text.find_first_of(",\"\n\r") == std::string::npos) return text;
-  std::string out = "\"";
-  for (char c : text) {
-    if (c == '"') out += '"';
-    out += c;
-  }
-  return out + "\"";
-}
 
 std::string seconds(double s) { return std::isfinite(s) ? fmt_fixed(s, 0) : std::string(); }
 

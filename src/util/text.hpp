@@ -34,6 +34,17 @@ inline std::optional<double> parse_number(std::string_view text) {
   return value;
 }
 
+/// A CSV field (RFC 4180): quoted, with quotes doubled, when it holds a comma, quote or line break.
+inline std::string csv_field(std::string_view text) {
+  if (text.find_first_of(",\"\n\r") == std::string_view::npos) return std::string(text);
+  std::string out = "\"";
+  for (char c : text) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  return out + "\"";
+}
+
 /// Breaks text into lines of at most `width` characters at spaces (words longer stay whole).
 inline std::string word_wrap(std::string_view text, std::size_t width) {
   std::string out, line;

@@ -25,3 +25,11 @@ TEST(Locale, FormattingAndParsingAlwaysUseAPoint) {
   EXPECT_FALSE(parse_number("").has_value());
   EXPECT_EQ(parse_number("+1e3").value(), 1000.0);
 }
+
+TEST(CsvField, QuotesOnlyWhenNeeded) {
+  // RFC 4180, section 2: fields with commas, quotes or line breaks are quoted, quotes doubled.
+  EXPECT_EQ(csv_field("plain"), "plain");
+  EXPECT_EQ(csv_field("a,b"), "\"a,b\"");
+  EXPECT_EQ(csv_field("say \"hi\""), "\"say \"\"hi\"\"\"");
+  EXPECT_EQ(csv_field("two\nlines"), "\"two\nlines\"");
+}
