@@ -2,6 +2,9 @@
 // operations (docs/operations.md).
 #include "coursewarden/ops_outputs.hpp"
 
+#include "coursewarden/report.hpp"
+#include "io/report_svg.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <string>
@@ -17,7 +20,6 @@ constexpr std::size_t kTextWidth = 100;
 
 std::string two(long v) { return (v < 10 ? "0" : "") + std::to_string(v); }
 
-
 std::string seconds(double s) { return std::isfinite(s) ? fmt_fixed(s, 0) : std::string(); }
 
 std::string boolean(bool b) { return b ? "true" : "false"; }
@@ -26,35 +28,6 @@ std::string join(const std::vector<std::string>& parts, const char* sep) {
   std::string out;
   for (std::size_t k = 0; k < parts.size(); ++k) out += (k ? sep : "") + parts[k];
   return out;
-}
-
-// XML 1.0 character data and attribute values: & < > " ' escaped; control characters other
-// than tab, newline and carriage return are not allowed in XML 1.0 and are dropped.
-std::string escape_xml(std::string_view text) {
-  std::string out;
-  for (char ch : text) {
-    const auto u = static_cast<unsigned char>(ch);
-    switch (ch) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      case '\'': out += "&apos;"; break;
-      default:
-        if (u < 0x20 && ch != '\t' && ch != '\n' && ch != '\r') break;
-        out += ch;
-    }
-  }
-  return out;
-}
-
-double interpolate(const std::vector<double>& x, const std::vector<double>& y, double at) {
-  if (x.empty() || y.size() != x.size()) return NAN;
-  if (at <= x.front()) return y.front();
-  if (at >= x.back()) return y.back();
-  const auto hi = static_cast<std::size_t>(std::upper_bound(x.begin(), x.end(), at) - x.begin());
-  const double f = (at - x[hi - 1]) / (x[hi] - x[hi - 1]);
-  return y[hi - 1] + f * (y[hi] - y[hi - 1]);
 }
 
 std::string pad(const std::string& s, std::size_t width, bool right = false) {
@@ -150,17 +123,17 @@ std::string marshal_plan_gpx(const CheckResult& c, const MarshalPlan& plan) {
   o += "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
   o += "<gpx version=\"1.1\" creator=\"coursewarden\" xmlns=\"http://www.topografix.com/GPX/1/1\">\n";
   o += "  <metadata>\n";
-  o += "    <name>" + escape_xml("Marshal posts: " + c.analysis.course.name) + "</name>\n";
-  o += "    <desc>" + escape_xml(kDisclaimer) + "</desc>\n";
+  o += "    <name>" + escape_markup("Marshal posts: " + c.analysis.course.name) + "</name>\n";
+  o += "    <desc>" + escape_markup(kDisclaimer) + "</desc>\n";
   o += "  </metadata>\n";
   for (const MarshalPost& p : plan.posts) {
     o += "  <wpt lat=\"" + fmt_fixed(p.lat_deg, 7) + "\" lon=\"" + fmt_fixed(p.lon_deg, 7) + "\">\n";
-    const double ele = interpolate(profile.distance_m, profile.elevation_m, p.at_m);
+    const double ele = report_detail::interpolate(profile.distance_m, profile.elevation_m, p.at_m);
     if (std::isfinite(ele)) o += "    <ele>" + fmt_fixed(ele, 1) + "</ele>\n";
-    o += "    <name>" + escape_xml(p.code + " (" + std::to_string(p.count) + ")") + "</name>\n";
-    o += "    <cmt>" + escape_xml("km " + km(p.at_m) + ", " + marshals_word(p.count)) + "</cmt>\n";
+    o += "    <name>" + escape_markup(p.code + " (" + std::to_string(p.count) + ")") + "</name>\n";
+    o += "    <cmt>" + escape_markup("km " + km(p.at_m) + ", " + marshals_word(p.count)) + "</cmt>\n";
     o += "    <desc>" +
-         escape_xml(p.warn + ". On post " + clock_hms(p.on_post_s) + " (not before " +
+         escape_markup(p.warn + ". On post " + clock_hms(p.on_post_s) + " (not before " +
                     clock_hms(p.not_before_s) + "), first rider " + clock_hms(p.earliest_pass_s) +
                     ", closing vehicle " + clock_hms(p.closing_s) + ", off post " +
                     clock_hms(p.off_post_s) + ".") +
