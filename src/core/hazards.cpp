@@ -226,7 +226,12 @@ std::vector<Hazard> steep_descents(const HazardInputs& in, const HazardOptions& 
     if (g <= opt.steep_descent_pct) std::fill(steep.begin() + static_cast<long>(i), steep.begin() + static_cast<long>(j) + 1, 1);
   }
   std::vector<Hazard> out;
-  for (const Range& r : runs(d, steep, opt.steep_window_m - 1e-6)) {
+  for (Range r : runs(d, steep, opt.steep_window_m - 1e-6)) {
+    // A steep window may reach onto level road at either end: trim the stretch to where the road
+    // itself falls at least half as steeply as the threshold (station to station).
+    auto step_pct = [&](std::size_t i) { return (p.elevation_m[i + 1] - p.elevation_m[i]) / (d[i + 1] - d[i]) * 100.0; };
+    while (r.from < r.to && step_pct(r.from) > 0.5 * opt.steep_descent_pct) ++r.from;
+    while (r.to > r.from && step_pct(r.to - 1) > 0.5 * opt.steep_descent_pct) --r.to;
     Hazard h;
     h.kind = HazardKind::steep_descent;
     h.at_m = d[r.from];

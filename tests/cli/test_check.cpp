@@ -350,3 +350,27 @@ TEST(CheckCli, CoarseSpacingIsRefusedForTheCheck) {
   EXPECT_EQ(cli::run({"coursewarden", "check", sc.course, "--dem", sc.dem, "--spacing", "25"}, out, err), 1);
   EXPECT_NE(err.str().find("10 m"), std::string::npos) << err.str();
 }
+
+TEST(CheckHazards, ASteepDescentIsReportedWhereTheRoadFalls) {
+  // 1 km level, 400 m at -14 %, then 1 km level (heights from the file, no smoothing): the steep
+  // descent runs from km 1.0 to 1.4 (derived), not on into the level road after it.
+  Scene sc;
+  std::vector<PlanePoint> pts;
+  for (double d = 0; d <= 2400; d += 5) pts.push_back({kX0 + d, kY0, d});
+  sc.course = sc.dir.file("steep.gpx");
+  cwtest::write_gpx(sc.course, {{"Steep", {to_lonlat(pts, [](const PlanePoint& p) {
+                                     return 500.0 - 0.14 * std::clamp(p.s - 1000.0, 0.0, 400.0);
+                                   })}}});
+  CheckOptions opt;
+  opt.analysis.course_path = sc.course;
+  opt.analysis.elevation_source = ElevationSource::course;
+  opt.analysis.profile.smoothing_sigma_m = 0.0;
+  opt.check_reverse = false;
+  const CheckResult r = run_check(opt);
+  const Hazard* steep = nullptr;
+  for (const auto& h : r.hazards)
+    if (h.kind == HazardKind::steep_descent) steep = &h;
+  ASSERT_NE(steep, nullptr);
+  EXPECT_NEAR(steep->at_m, 1000.0, 10.0);
+  EXPECT_NEAR(steep->end_m, 1400.0, 10.0);
+}
