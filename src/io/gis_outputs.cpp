@@ -10,6 +10,7 @@
 #include "coursewarden/error.hpp"
 #include "coursewarden/outputs.hpp"
 #include "coursewarden/report.hpp"
+#include "io/gpx_text.hpp"
 #include "io/json_out.hpp"
 #include "io/report_svg.hpp"
 #include "util/text.hpp"
@@ -296,29 +297,21 @@ std::string climbs_geojson(const CheckResult& c) {
 
 std::string hazards_gpx(const CheckResult& c) {
   const auto& p = c.analysis.profile;
-  std::string o;
-  o += "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
-  o += "<gpx version=\"1.1\" creator=\"coursewarden\" xmlns=\"http://www.topografix.com/GPX/1/1\">\n";
-  o += "  <metadata>\n";
-  o += "    <name>" + escape_markup("Hazards: " + c.analysis.course.name) + "</name>\n";
-  o += "    <desc>" + escape_markup(kDisclaimer) + "</desc>\n";
-  o += "  </metadata>\n";
+  std::vector<GpxWaypoint> points;
   for (const Hazard& h : c.hazards) {
-    const std::string code = report_detail::hazard_code(h.number, c.hazards.size());
-    o += "  <wpt lat=\"" + fmt_fixed(h.lat_deg, 7) + "\" lon=\"" + fmt_fixed(h.lon_deg, 7) + "\">\n";
-    const double ele = report_detail::interpolate(p.distance_m, p.elevation_m, h.at_m);
-    if (std::isfinite(ele)) o += "    <ele>" + fmt_fixed(ele, 1) + "</ele>\n";
-    o += "    <name>" + escape_markup(code + " " + std::string(severity_name(h.severity))) + "</name>\n";
-    std::string cmt = "km " + fmt_fixed(h.at_m / 1000.0, 2) + ", " + hazard_kind_label(h.kind) +
-                      "; sign " + fmt_fixed(h.sign.distance_m, 0) + " m before; " +
-                      std::to_string(h.marshals) + (h.marshals == 1 ? " marshal" : " marshals");
-    o += "    <cmt>" + escape_markup(cmt) + "</cmt>\n";
-    o += "    <desc>" + escape_markup(h.reason) + "</desc>\n";
-    o += "    <type>" + std::string(severity_name(h.severity)) + "</type>\n";
-    o += "  </wpt>\n";
+    GpxWaypoint w;
+    w.lat_deg = h.lat_deg;
+    w.lon_deg = h.lon_deg;
+    w.elevation_m = report_detail::interpolate(p.distance_m, p.elevation_m, h.at_m);
+    w.name = report_detail::hazard_code(h.number, c.hazards.size()) + " " + std::string(severity_name(h.severity));
+    w.cmt = "km " + fmt_fixed(h.at_m / 1000.0, 2) + ", " + hazard_kind_label(h.kind) + "; sign " +
+            fmt_fixed(h.sign.distance_m, 0) + " m before; " + std::to_string(h.marshals) +
+            (h.marshals == 1 ? " marshal" : " marshals");
+    w.desc = h.reason;
+    w.type = severity_name(h.severity);
+    points.push_back(std::move(w));
   }
-  o += "</gpx>\n";
-  return o;
+  return gpx_waypoints("Hazards: " + c.analysis.course.name, points);
 }
 
 std::string hazards_csv(const CheckResult& c) {

@@ -3,6 +3,7 @@
 #include "coursewarden/ops_outputs.hpp"
 
 #include "coursewarden/report.hpp"
+#include "io/gpx_text.hpp"
 #include "io/report_svg.hpp"
 
 #include <algorithm>
@@ -119,30 +120,21 @@ std::string marshal_plan_csv(const MarshalPlan& plan) {
 
 std::string marshal_plan_gpx(const CheckResult& c, const MarshalPlan& plan) {
   const auto& profile = c.analysis.profile;
-  std::string o;
-  o += "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
-  o += "<gpx version=\"1.1\" creator=\"coursewarden\" xmlns=\"http://www.topografix.com/GPX/1/1\">\n";
-  o += "  <metadata>\n";
-  o += "    <name>" + escape_markup("Marshal posts: " + c.analysis.course.name) + "</name>\n";
-  o += "    <desc>" + escape_markup(kDisclaimer) + "</desc>\n";
-  o += "  </metadata>\n";
+  std::vector<GpxWaypoint> points;
   for (const MarshalPost& p : plan.posts) {
-    o += "  <wpt lat=\"" + fmt_fixed(p.lat_deg, 7) + "\" lon=\"" + fmt_fixed(p.lon_deg, 7) + "\">\n";
-    const double ele = report_detail::interpolate(profile.distance_m, profile.elevation_m, p.at_m);
-    if (std::isfinite(ele)) o += "    <ele>" + fmt_fixed(ele, 1) + "</ele>\n";
-    o += "    <name>" + escape_markup(p.code + " (" + std::to_string(p.count) + ")") + "</name>\n";
-    o += "    <cmt>" + escape_markup("km " + km(p.at_m) + ", " + marshals_word(p.count)) + "</cmt>\n";
-    o += "    <desc>" +
-         escape_markup(p.warn + ". On post " + clock_hms(p.on_post_s) + " (not before " +
-                    clock_hms(p.not_before_s) + "), first rider " + clock_hms(p.earliest_pass_s) +
-                    ", closing vehicle " + clock_hms(p.closing_s) + ", off post " +
-                    clock_hms(p.off_post_s) + ".") +
-         "</desc>\n";
-    o += "    <type>marshal post</type>\n";
-    o += "  </wpt>\n";
+    GpxWaypoint w;
+    w.lat_deg = p.lat_deg;
+    w.lon_deg = p.lon_deg;
+    w.elevation_m = report_detail::interpolate(profile.distance_m, profile.elevation_m, p.at_m);
+    w.name = p.code + " (" + std::to_string(p.count) + ")";
+    w.cmt = "km " + km(p.at_m) + ", " + marshals_word(p.count);
+    w.desc = p.warn + ". On post " + clock_hms(p.on_post_s) + " (not before " + clock_hms(p.not_before_s) +
+             "), first rider " + clock_hms(p.earliest_pass_s) + ", closing vehicle " + clock_hms(p.closing_s) +
+             ", off post " + clock_hms(p.off_post_s) + ".";
+    w.type = "marshal post";
+    points.push_back(std::move(w));
   }
-  o += "</gpx>\n";
-  return o;
+  return gpx_waypoints("Marshal posts: " + c.analysis.course.name, points);
 }
 
 std::string operations_text(const Schedule& s, const MarshalPlan& plan, const Grading& grading) {
