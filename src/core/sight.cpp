@@ -61,6 +61,27 @@ void require_tuning(const char* function, const TerrainSightTuning& tuning) {
   }
 }
 
+// The checks shared by the two terrain scans (distances are checked by the caller first).
+void require_scan_inputs(const char* fn, const std::vector<double>& x_m, const std::vector<double>& y_m,
+                         const std::vector<double>& elevation_m, const std::vector<double>& d, double eye_height_m,
+                         double object_height_m, double max_look_m, double sample_step_m,
+                         const TerrainSightTuning& tuning) {
+  const std::size_t n = d.size();
+  require_size(fn, "x", x_m.size(), n);
+  require_size(fn, "y", y_m.size(), n);
+  require_size(fn, "elevation", elevation_m.size(), n);
+  require_finite(fn, "x", x_m, d);
+  require_finite(fn, "y", y_m, d);
+  require_finite(fn, "road height", elevation_m, d);
+  require_positive(fn, "eye height", eye_height_m);
+  require_positive(fn, "look-ahead", max_look_m);
+  require_positive(fn, "sample step", sample_step_m);
+  if (!(std::isfinite(object_height_m) && object_height_m >= 0.0)) {
+    fail("", fn, "object height must be finite and >= 0 m");
+  }
+  require_tuning(fn, tuning);
+}
+
 // Sight value when stations up to `last_visible` are seen: capped by the look-ahead when the
 // scan stopped there, by the course end when it ran out of road.
 double reach_m(const std::vector<double>& d, std::size_t i, std::size_t last_visible,
@@ -181,21 +202,10 @@ std::vector<double> terrain_sight_distance_m(const std::vector<double>& x_m,
   const char* fn = "terrain sight distance";
   require_distances(fn, d);
   const std::size_t n = d.size();
-  require_size(fn, "x", x_m.size(), n);
-  require_size(fn, "y", y_m.size(), n);
-  require_size(fn, "elevation", elevation_m.size(), n);
   if (!evaluate.empty()) require_size(fn, "evaluate mask", evaluate.size(), n);
-  require_finite(fn, "x", x_m, d);
-  require_finite(fn, "y", y_m, d);
-  require_finite(fn, "road height", elevation_m, d);
-  require_positive(fn, "eye height", eye_height_m);
-  require_positive(fn, "look-ahead", max_look_m);
-  require_positive(fn, "sample step", sample_step_m);
-  if (!(std::isfinite(object_height_m) && object_height_m >= 0.0)) {
-    fail("", fn, "object height must be finite and >= 0 m");
-  }
+  require_scan_inputs(fn, x_m, y_m, elevation_m, d, eye_height_m, object_height_m, max_look_m, sample_step_m,
+                      tuning);
   if (!terrain) fail("", fn, "no terrain height function given");
-  require_tuning(fn, tuning);
 
   std::vector<double> out(n, kNaN);
   std::size_t limit = 0;  // last station within the look-ahead of the current one
@@ -273,19 +283,8 @@ std::vector<double> visible_approach_m(const std::vector<double>& x_m,
   const char* fn = "visible approach";
   require_distances(fn, d);
   const std::size_t n = d.size();
-  require_size(fn, "x", x_m.size(), n);
-  require_size(fn, "y", y_m.size(), n);
-  require_size(fn, "elevation", elevation_m.size(), n);
-  require_finite(fn, "x", x_m, d);
-  require_finite(fn, "y", y_m, d);
-  require_finite(fn, "road height", elevation_m, d);
-  require_positive(fn, "eye height", eye_height_m);
-  require_positive(fn, "look-ahead", max_look_m);
-  require_positive(fn, "sample step", sample_step_m);
-  if (!(std::isfinite(object_height_m) && object_height_m >= 0.0)) {
-    fail("", fn, "object height must be finite and >= 0 m");
-  }
-  require_tuning(fn, tuning);
+  require_scan_inputs(fn, x_m, y_m, elevation_m, d, eye_height_m, object_height_m, max_look_m, sample_step_m,
+                      tuning);
   std::vector<double> out;
   out.reserve(targets.size());
   for (const std::size_t t : targets) {
